@@ -1,0 +1,80 @@
+package dev.tallyvane.engine;
+
+import dev.tallyvane.engine.model.Candidate;
+import dev.tallyvane.engine.model.Drift;
+import dev.tallyvane.engine.model.ExponentialSmoothing;
+import dev.tallyvane.engine.model.HistoricalMean;
+import dev.tallyvane.engine.model.MovingAverage;
+import dev.tallyvane.engine.model.Naive;
+import dev.tallyvane.engine.model.PolynomialTrend;
+import dev.tallyvane.engine.model.SeasonalNaive;
+import dev.tallyvane.engine.model.WeightedMovingAverage;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Set;
+
+/**
+ * The candidates the engine compares. Moving averages come as one candidate per length k = 2..12,
+ * so the backtest chooses k; a fitted weighted moving average uses k = 4 lags; seasonal candidates
+ * appear only when the series has a seasonal period.
+ */
+public final class CandidateSet {
+
+    public static final int MA_MIN = 2;
+    public static final int MA_MAX = 12;
+    public static final int WMA_FITTED_LAGS = 4;
+
+    private CandidateSet() {
+    }
+
+    /** Every candidate for seasonal period m, with the owner's WMA weights when given. */
+    public static List<Candidate> all(int m, double[] customWeights) {
+        List<Candidate> list = new ArrayList<>();
+        list.add(new Naive());
+        if (m >= 2) {
+            list.add(new SeasonalNaive());
+        }
+        list.add(new Drift());
+        list.add(new HistoricalMean());
+        for (int k = MA_MIN; k <= MA_MAX; k++) {
+            list.add(new MovingAverage(k));
+        }
+        if (customWeights != null) {
+            list.add(WeightedMovingAverage.withWeights(customWeights));
+        }
+        list.add(WeightedMovingAverage.fitted(WMA_FITTED_LAGS));
+        for (int d = 1; d <= 3; d++) {
+            list.add(new PolynomialTrend(d, false));
+        }
+        if (m >= 2) {
+            list.add(new PolynomialTrend(1, true));
+            list.add(new PolynomialTrend(2, true));
+        }
+        list.add(new ExponentialSmoothing());
+        return list;
+    }
+
+    /** The keys every series may use (for validating settings), with m = 12 and custom weights. */
+    public static Set<String> knownKeys() {
+        Set<String> keys = new java.util.TreeSet<>();
+        for (Candidate c : all(12, new double[] {1.0})) {
+            keys.add(c.key());
+        }
+        return keys;
+    }
+
+    /** {@link #all} narrowed to {@code keys} (empty = all). */
+    public static List<Candidate> select(int m, double[] customWeights, Set<String> keys) {
+        List<Candidate> all = all(m, customWeights);
+        if (keys.isEmpty()) {
+            return all;
+        }
+        Set<String> known = knownKeys();
+        for (String k : keys) {
+            if (!known.contains(k)) {
+                throw new IllegalArgumentException("unknown candidate '" + k + "'; known: " + String.join(", ", known));
+            }
+        }
+        return all.stream().filter(c -> keys.contains(c.key())).toList();
+    }
+}

@@ -1,0 +1,211 @@
+package dev.tallyvane.engine;
+
+import dev.tallyvane.engine.ForecastResult.ForecastPoint;
+import dev.tallyvane.engine.ForecastResult.HistoryPoint;
+import dev.tallyvane.engine.ForecastResult.IntervalSource;
+import dev.tallyvane.engine.evaluation.LeaderboardEntry;
+import dev.tallyvane.engine.evaluation.Metric;
+import dev.tallyvane.engine.evaluation.RollingOriginBacktest;
+import dev.tallyvane.engine.model.Candidate;
+import dev.tallyvane.engine.model.FittedModel;
+import dev.tallyvane.engine.model.Naive;
+import dev.tallyvane.engine.model.PointForecast;
+import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.engine.series.Series;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import org.apache.commons.math3.distribution.NormalDistribution;
+import org.apache.commons.math3.distribution.TDistribution;
+
+/**
+ * Fits every candidate, scores each on the same rolling origins, keeps the best by the chosen
+ * metric, and forecasts with 80% and 95% prediction intervals.
+ *
+ * <p><b>Data handling</b> (never silent; each case is reported in the result's notes):
+ * <ul>
+ * <li>leading and trailing missing periods are dropped: the forecast starts after the last observed
+ * period;</li>
+ * <li>an interior missing period, or a closed day, is filled for fitting only (the value one season
+ * earlier when that was observed, otherwise linear interpolation between its neighbours) and is
+ * never scored as an actual;</li>
+ * <li>a zero on an open day is real data; MAPE leaves it out and says how many it left out;</li>
+ * <li>a closed day ahead is forecast as exactly 0, with a zero-width interval.</li>
+ * </ul>
+ *
+ * <p><b>Selection</b>: rolling origins at the requested horizon ({@link RollingOriginBacktest});
+ * lowest metric wins; on a tie (relative difference below 1e-9) the simpler candidate wins. With too
+ * little history for a single origin the engine falls back to the naive method and says so.
+ *
+ * <p><b>Intervals</b>: the model's analytic σ_h where it has one (normal, or Student's t where the
+ * model states degrees of freedom); otherwise empirical from the rolling-origin errors: σ_h =
+ * RMSE of the step-h errors (made non-decreasing in h), with Student's t on as many degrees of
+ * freedom as there were step-h errors, since few origins give a rough estimate of σ_h.
+ *
+ * <p>Deterministic: no randomness is used.
+ */
+public final class ForecastEngine {
+
+    /** Version of the engine, recorded with every issued forecast. */
+    public static final String VERSION = "1.0";
+
+    private static final int MINIMUM_TRAINING = 4;
+
+    private ForecastEngine() {
+    }
+
+    public static ForecastResult forecast(Series series, ForecastRequest request) {
+        PreparedSeries data = PreparedSeries.of(series);
+        List<String> notes = new ArrayList<>(data.notes());
+        int n = data.length();
+        int h = request.horizon();
+        int m = request.seasonalPeriod() > 0 ? request.seasonalPeriod() : series.granularity().seasonalPeriod();
+        if (m >= n / 2 && m > 1 && request.seasonalPeriod() == 0) {
+            notes.add(String.format(Locale.ROOT,
+                    "%d periods are fewer than two seasonal cycles of %d: seasonal candidates are left out", n, m));
+        }
+        List<Candidate> candidates = CandidateSet.select(m, request.customWeights(), request.candidateKeys());
+        RollingOriginBacktest backtest = RollingOriginBacktest.plan(n, h, request.maxOrigins(),
+                request.originStep(), MINIMUM_TRAINING);
+
+        List<Scored> scored = new ArrayList<>();
+        List<LeaderboardEntry> unscored = new ArrayList<>();
+        for (Candidate c : candidates) {
+            int needed = c.minimumHistory(m);
+            if (backtest.originCount() == 0 || needed > backtest.earliestTraining()) {
+                int total = needed + h + (Math.max(1, backtest.originCount()) - 1) * request.originStep();
+                unscored.add(new LeaderboardEntry(c.key(), c.name(), c.complexity(),
+                        LeaderboardEntry.Status.NOT_ENOUGH_HISTORY, Map.of(), 0, 0, 0,
+                        "needs about " + total + " periods for an out-of-sample test at this horizon; has " + n));
+                continue;
+            }
+            try {
+                RollingOriginBacktest.Outcome outcome = backtest.run(c, data.filled(), data.scorable(), m);
+                scored.add(new Scored(c, outcome, outcome.errors().compute(request.metric())));
+            } catch (RuntimeException e) {
+                unscored.add(new LeaderboardEntry(c.key(), c.name(), c.complexity(), LeaderboardEntry.Status.FAILED,
+                        Map.of(), 0, 0, 0, String.valueOf(e.getMessage())));
+            }
+        }
+        Metric metric = request.metric();
+        scored.sort(Comparator.comparingDouble((Scored s) -> rankable(metric, s.score))
+                .thenComparing((a, b) -> tie(metric, a, b)));
+
+        Candidate chosen;
+        RollingOriginBacktest.Outcome chosenOutcome = null;
+        String reason;
+        Scored winner = scored.stream().filter(s -> Double.isFinite(s.score)).findFirst().orElse(null);
+        if (winner == null) {
+            chosen = new Naive();
+            reason = "Too little history to compare methods out of sample; the naive method (last value carried "
+                    + "forward) is used until more periods arrive.";
+            notes.add(String.format(Locale.ROOT, "fell back to the naive method: %d periods are too few for a "
+                    + "rolling-origin test %d periods ahead", n, h));
+        } else {
+            chosen = winner.candidate;
+            chosenOutcome = winner.outcome;
+            reason = String.format(Locale.ROOT, "Lowest %s over %d rolling origin%s, %d %s ahead.", metric.label(),
+                    backtest.originCount(), backtest.originCount() == 1 ? "" : "s", h, unit(series.granularity(), h));
+        }
+
+        List<LeaderboardEntry> board = new ArrayList<>();
+        int rank = 1;
+        for (Scored s : scored) {
+            board.add(new LeaderboardEntry(s.candidate.key(), s.candidate.name(), s.candidate.complexity(),
+                    LeaderboardEntry.Status.SCORED, s.outcome.errors().all(), s.outcome.errors().size(),
+                    s.outcome.errors().zeroActuals(), rank++, ""));
+        }
+        board.addAll(unscored);
+
+        FittedModel model = chosen.fit(data.filled(), m);
+        PointForecast pf = model.forecast(h);
+        IntervalSource source = usable(pf) || chosenOutcome == null ? IntervalSource.ANALYTIC
+                : IntervalSource.ROLLING_ORIGIN_ERRORS;
+        List<ForecastPoint> points = intervals(series, data, pf, chosenOutcome, source);
+        return new ForecastResult(chosen.key(), chosen.name(), model.description(), model.parameters(), source,
+                reason, series.granularity(), h, metric, points, data.history(model.fitted()), board,
+                backtest.originCount(), notes);
+    }
+
+    private record Scored(Candidate candidate, RollingOriginBacktest.Outcome outcome, double score) {
+    }
+
+    private static double rankable(Metric metric, double score) {
+        double v = metric.rankingValue(score);
+        return Double.isNaN(v) ? Double.POSITIVE_INFINITY : v;
+    }
+
+    private static int tie(Metric metric, Scored a, Scored b) {
+        return Integer.compare(a.candidate.complexity(), b.candidate.complexity());
+    }
+
+    private static String unit(Granularity g, int h) {
+        String base = switch (g) {
+            case DAY -> "day";
+            case WEEK -> "week";
+            case MONTH -> "month";
+        };
+        return h == 1 ? base : base + "s";
+    }
+
+    private static boolean usable(PointForecast pf) {
+        if (!pf.hasAnalyticIntervals()) {
+            return false;
+        }
+        for (double s : pf.sd()) {
+            if (!Double.isFinite(s)) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    private static final NormalDistribution NORMAL = new NormalDistribution(null, 0, 1);
+
+    private static List<ForecastPoint> intervals(Series series, PreparedSeries data, PointForecast pf,
+            RollingOriginBacktest.Outcome outcome, IntervalSource source) {
+        int h = pf.horizon();
+        List<ForecastPoint> out = new ArrayList<>(h);
+        double runningSd = 0;
+        double lastDf = 1;
+        for (int step = 1; step <= h; step++) {
+            int index = data.offset() + data.length() + step - 1;
+            java.time.LocalDate period = series.periodAt(index);
+            String label = series.granularity().label(period);
+            if (series.granularity() == Granularity.DAY && series.calendar().isClosed(period)) {
+                out.add(new ForecastPoint(period, label, 0, 0, 0, 0, 0, true));
+                continue;
+            }
+            double mean = pf.mean()[step - 1];
+            double sd;
+            double df;
+            if (source == IntervalSource.ANALYTIC) {
+                sd = pf.sd() == null ? Double.NaN : pf.sd()[step - 1];
+                df = pf.degreesOfFreedom();
+            } else {
+                double r = outcome.rmseAt(step);
+                int count = outcome.countByStep()[step - 1];
+                if (Double.isFinite(r)) {
+                    runningSd = Math.max(runningSd, r);
+                    lastDf = Math.max(1, count);
+                }
+                sd = runningSd;
+                df = lastDf;
+            }
+            double z80 = quantile(0.90, df);
+            double z95 = quantile(0.975, df);
+            out.add(new ForecastPoint(period, label, mean, mean - z80 * sd, mean + z80 * sd, mean - z95 * sd,
+                    mean + z95 * sd, false));
+        }
+        return out;
+    }
+
+    static double quantile(double p, double df) {
+        if (Double.isInfinite(df) || df > 1e6) {
+            return NORMAL.inverseCumulativeProbability(p);
+        }
+        return new TDistribution(null, df).inverseCumulativeProbability(p);
+    }
+}

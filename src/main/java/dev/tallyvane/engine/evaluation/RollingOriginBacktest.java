@@ -1,0 +1,95 @@
+package dev.tallyvane.engine.evaluation;
+
+import dev.tallyvane.engine.model.Candidate;
+import dev.tallyvane.engine.model.PointForecast;
+
+/**
+ * Rolling-origin evaluation with an expanding window (Tashman, "Out-of-sample tests of forecasting
+ * accuracy: an analysis and review", <i>International Journal of Forecasting</i> 16 (2000)
+ * 437–450; FPP3 §5.10 "time series cross-validation").
+ *
+ * <p>For origins T₁ &lt; … &lt; T_o (training lengths), each candidate is fitted to y₁..y_T and
+ * forecasts T+1..T+h; every forecast whose actual is scorable (observed, not a closed day) adds one
+ * error. All candidates use the same origins, so their scores are comparable. Origins are spaced
+ * {@code step} periods apart and end h periods before the data do:
+ * <pre>  T_i = n − h − (o − i)·step,  i = 1..o</pre>
+ */
+public final class RollingOriginBacktest {
+
+    private final int[] origins;
+    private final int horizon;
+
+    private RollingOriginBacktest(int[] origins, int horizon) {
+        this.origins = origins;
+        this.horizon = horizon;
+    }
+
+    /**
+     * Plans up to {@code maxOrigins} origins for a series of n periods whose earliest training window
+     * has at least {@code minimumTraining} periods; fewer when the data are short, none when even
+     * one origin does not fit.
+     */
+    public static RollingOriginBacktest plan(int n, int horizon, int maxOrigins, int step, int minimumTraining) {
+        int last = n - horizon;
+        int count = 0;
+        while (count < maxOrigins && last - count * step >= minimumTraining) {
+            count++;
+        }
+        int[] origins = new int[count];
+        for (int i = 0; i < count; i++) {
+            origins[i] = last - (count - 1 - i) * step;
+        }
+        return new RollingOriginBacktest(origins, horizon);
+    }
+
+    public int originCount() {
+        return origins.length;
+    }
+
+    /** The shortest training window: a candidate needing more history cannot take part. */
+    public int earliestTraining() {
+        return origins.length == 0 ? 0 : origins[0];
+    }
+
+    public int horizon() {
+        return horizon;
+    }
+
+    /** The errors of one candidate over every origin, pooled and by horizon step. */
+    public record Outcome(ErrorSample errors, double[] sumSquaredByStep, int[] countByStep) {
+
+        /** Root mean squared error at step h (1-based), NaN when there is none. */
+        public double rmseAt(int step) {
+            int i = step - 1;
+            return countByStep[i] > 0 ? Math.sqrt(sumSquaredByStep[i] / countByStep[i]) : Double.NaN;
+        }
+    }
+
+    /**
+     * Runs the candidate over every origin.
+     *
+     * @param y        filled values (no NaN)
+     * @param scorable false where the original value was missing or the day was closed
+     * @throws RuntimeException whatever the candidate throws on a training window
+     */
+    public Outcome run(Candidate candidate, double[] y, boolean[] scorable, int seasonalPeriod) {
+        ErrorSample errors = new ErrorSample();
+        double[] sumSq = new double[horizon];
+        int[] counts = new int[horizon];
+        for (int origin : origins) {
+            double[] training = java.util.Arrays.copyOf(y, origin);
+            double scale = ErrorSample.maseScale(y, scorable, origin, seasonalPeriod);
+            PointForecast f = candidate.fit(training, seasonalPeriod).forecast(horizon);
+            for (int h = 1; h <= horizon; h++) {
+                int t = origin + h - 1;
+                if (t < y.length && scorable[t]) {
+                    double e = y[t] - f.mean()[h - 1];
+                    errors.add(y[t], f.mean()[h - 1], scale);
+                    sumSq[h - 1] += e * e;
+                    counts[h - 1]++;
+                }
+            }
+        }
+        return new Outcome(errors, sumSq, counts);
+    }
+}

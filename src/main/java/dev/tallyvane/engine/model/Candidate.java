@@ -1,0 +1,30 @@
+package dev.tallyvane.engine.model;
+
+/**
+ * A forecasting method that can be fitted to a series. Implementations are immutable and
+ * thread-safe: {@link #fit} returns a new {@link FittedModel} and never changes the candidate.
+ *
+ * <p>Contract of {@link #fit}: {@code y} has no NaN or infinite value (the engine fills missing
+ * periods before fitting) and at least {@link #minimumHistory(int)} values; otherwise an
+ * {@link IllegalArgumentException} names the problem.
+ */
+public interface Candidate {
+
+    /** A stable key for settings and reports, e.g. {@code ma3}, {@code ets}, {@code poly2s}. */
+    String key();
+
+    /** A short human-readable name, e.g. "Moving average (k = 3)". */
+    String name();
+
+    /**
+     * The number of estimated parameters (a simplicity rank): on a tie in the selection metric
+     * the candidate with the smaller value wins.
+     */
+    int complexity();
+
+    /** The fewest periods this candidate needs to be fitted, given the seasonal period m. */
+    int minimumHistory(int seasonalPeriod);
+
+    /** Fits the candidate to {@code y} with seasonal period {@code seasonalPeriod} (1 = none). */
+    FittedModel fit(double[] y, int seasonalPeriod);
+}

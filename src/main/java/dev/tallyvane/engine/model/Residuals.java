@@ -1,0 +1,39 @@
+package dev.tallyvane.engine.model;
+
+/** Small helpers over fitted values shared by the candidates. */
+final class Residuals {
+
+    private Residuals() {
+    }
+
+    /**
+     * Residual standard deviation sqrt(Σe²/(N − k)) over the N periods that have a fitted value,
+     * where k is the number of estimated parameters (FPP3 §5.5; Hyndman &amp; Athanasopoulos,
+     * <i>Forecasting: Principles and Practice</i>, 3rd ed.).
+     */
+    static double sigma(double[] y, double[] fitted, int estimatedParameters) {
+        double ss = 0;
+        int count = 0;
+        for (int i = 0; i < y.length; i++) {
+            if (!Double.isNaN(fitted[i])) {
+                double e = y[i] - fitted[i];
+                ss += e * e;
+                count++;
+            }
+        }
+        int dof = count - estimatedParameters;
+        return dof > 0 ? Math.sqrt(ss / dof) : Double.NaN;
+    }
+
+    static double[] nanArray(int n) {
+        double[] a = new double[n];
+        java.util.Arrays.fill(a, Double.NaN);
+        return a;
+    }
+
+    static void requireLength(double[] y, int minimum, String who) {
+        if (y.length < minimum) {
+            throw new IllegalArgumentException(who + " needs ≥ " + minimum + " periods, got " + y.length);
+        }
+    }
+}

@@ -1,0 +1,161 @@
+package dev.tallyvane.engine.series;
+
+import java.time.DayOfWeek;
+import java.time.LocalDate;
+import java.time.temporal.ChronoUnit;
+import java.time.temporal.IsoFields;
+import java.time.temporal.TemporalAdjusters;
+import java.util.Locale;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+
+/**
+ * The length of one period of a regular series. A period is identified by the date it starts on:
+ * the day itself, the Monday of an ISO-8601 week, or the first of a month.
+ *
+ * <p>Text labels (used by the one-shot command and uploads): {@code yyyy-MM-dd} for days,
+ * ISO week {@code yyyy-'W'ww} for weeks, {@code yyyy-MM} for months.
+ */
+public enum Granularity {
+
+    DAY(7), WEEK(52), MONTH(12);
+
+    private static final Pattern WEEK_LABEL = Pattern.compile("(\\d{4})-W(\\d{2})");
+    private static final Pattern MONTH_LABEL = Pattern.compile("(\\d{4})-(\\d{2})");
+    private static final Pattern DAY_LABEL = Pattern.compile("\\d{4}-\\d{2}-\\d{2}");
+
+    private final int seasonalPeriod;
+
+    Granularity(int seasonalPeriod) {
+        this.seasonalPeriod = seasonalPeriod;
+    }
+
+    /** The usual seasonal cycle in periods: 7 days a week, 52 weeks a year, 12 months a year. */
+    public int seasonalPeriod() {
+        return seasonalPeriod;
+    }
+
+    /** The start of the period that contains {@code date}. */
+    public LocalDate periodStart(LocalDate date) {
+        return switch (this) {
+            case DAY -> date;
+            case WEEK -> date.with(TemporalAdjusters.previousOrSame(DayOfWeek.MONDAY));
+            case MONTH -> date.withDayOfMonth(1);
+        };
+    }
+
+    /** The start of the period {@code steps} periods after the one starting at {@code start}. */
+    public LocalDate plus(LocalDate start, long steps) {
+        return switch (this) {
+            case DAY -> start.plusDays(steps);
+            case WEEK -> start.plusWeeks(steps);
+            case MONTH -> start.plusMonths(steps);
+        };
+    }
+
+    /** The last day of the period starting at {@code start}. */
+    public LocalDate periodEnd(LocalDate start) {
+        return plus(start, 1).minusDays(1);
+    }
+
+    /** Whole periods from the period starting at {@code from} to the one starting at {@code to}. */
+    public long periodsBetween(LocalDate from, LocalDate to) {
+        return switch (this) {
+            case DAY -> ChronoUnit.DAYS.between(from, to);
+            case WEEK -> ChronoUnit.WEEKS.between(from, to);
+            case MONTH -> ChronoUnit.MONTHS.between(from, to);
+        };
+    }
+
+    /** True when {@code date} is the first day of one of this granularity's periods. */
+    public boolean isPeriodStart(LocalDate date) {
+        return periodStart(date).equals(date);
+    }
+
+    /** The period's text label. */
+    public String label(LocalDate start) {
+        return switch (this) {
+            case DAY -> start.toString();
+            case WEEK -> String.format(Locale.ROOT, "%04d-W%02d",
+                    start.get(IsoFields.WEEK_BASED_YEAR), start.get(IsoFields.WEEK_OF_WEEK_BASED_YEAR));
+            case MONTH -> String.format(Locale.ROOT, "%04d-%02d", start.getYear(), start.getMonthValue());
+        };
+    }
+
+    /**
+     * Parses a period label of this granularity.
+     *
+     * @throws IllegalArgumentException naming the label when it is not of this granularity's form
+     */
+    public LocalDate parse(String label) {
+        String text = label.trim();
+        try {
+            switch (this) {
+                case DAY -> {
+                    if (DAY_LABEL.matcher(text).matches()) {
+                        return LocalDate.parse(text);
+                    }
+                }
+                case WEEK -> {
+                    Matcher m = WEEK_LABEL.matcher(text);
+                    if (m.matches()) {
+                        int year = Integer.parseInt(m.group(1));
+                        int week = Integer.parseInt(m.group(2));
+                        LocalDate monday = LocalDate.of(year, 1, 4)
+                                .with(IsoFields.WEEK_OF_WEEK_BASED_YEAR, week)
+                                .with(DayOfWeek.MONDAY);
+                        if (week >= 1 && monday.get(IsoFields.WEEK_OF_WEEK_BASED_YEAR) == week) {
+                            return monday;
+                        }
+                        throw new IllegalArgumentException("'" + label + "' is not an ISO week of " + year);
+                    }
+                }
+                case MONTH -> {
+                    Matcher m = MONTH_LABEL.matcher(text);
+                    if (m.matches()) {
+                        return LocalDate.of(Integer.parseInt(m.group(1)), Integer.parseInt(m.group(2)), 1);
+                    }
+                }
+            }
+        } catch (java.time.DateTimeException e) {
+            throw new IllegalArgumentException("'" + label + "' is not a valid " + name().toLowerCase(Locale.ROOT)
+                    + " period: " + e.getMessage(), e);
+        }
+        throw new IllegalArgumentException("'" + label + "' is not a " + name().toLowerCase(Locale.ROOT)
+                + " period; expected " + example());
+    }
+
+    /** An example label, for error messages. */
+    public String example() {
+        return switch (this) {
+            case DAY -> "yyyy-MM-dd, e.g. 2026-03-09";
+            case WEEK -> "yyyy-Www, e.g. 2026-W11";
+            case MONTH -> "yyyy-MM, e.g. 2026-03";
+        };
+    }
+
+    /** Detects the granularity from the form of one label, or throws naming the label. */
+    public static Granularity ofLabel(String label) {
+        String text = label.trim();
+        if (DAY_LABEL.matcher(text).matches()) {
+            return DAY;
+        }
+        if (WEEK_LABEL.matcher(text).matches()) {
+            return WEEK;
+        }
+        if (MONTH_LABEL.matcher(text).matches()) {
+            return MONTH;
+        }
+        throw new IllegalArgumentException("'" + label + "' is not a period label (yyyy-MM-dd, yyyy-Www or yyyy-MM)");
+    }
+
+    /** Case-insensitive lookup by name, naming the accepted values when the name is unknown. */
+    public static Granularity of(String name) {
+        for (Granularity g : values()) {
+            if (g.name().equalsIgnoreCase(name.trim())) {
+                return g;
+            }
+        }
+        throw new IllegalArgumentException("unknown granularity '" + name + "'; use day, week or month");
+    }
+}

@@ -1,0 +1,162 @@
+package dev.tallyvane.engine;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+import static org.assertj.core.api.Assertions.within;
+
+import dev.tallyvane.engine.evaluation.LeaderboardEntry;
+import dev.tallyvane.engine.evaluation.Metric;
+import dev.tallyvane.engine.series.CalendarFacts;
+import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.engine.series.Series;
+import java.time.LocalDate;
+import java.util.Arrays;
+import java.util.Random;
+import java.util.Set;
+import org.junit.jupiter.api.Test;
+
+class ForecastEngineTests {
+
+    private static Series monthly(double[] y) {
+        return new Series(Granularity.MONTH, LocalDate.of(2023, 1, 1), y);
+    }
+
+    private static double[] seasonalMonthly(int n, long seed) {
+        Random r = new Random(seed);
+        double[] y = new double[n];
+        for (int t = 0; t < n; t++) {
+            y[t] = 1000 + 5 * t + 200 * Math.sin(2 * Math.PI * t / 12) + 20 * r.nextGaussian();
+        }
+        return y;
+    }
+
+    @Test
+    void choosesASeasonalModelForSeasonalMonthlySalesAndReportsEveryCandidate() {
+        ForecastResult r = ForecastEngine.forecast(monthly(seasonalMonthly(48, 1)), ForecastRequest.of(6));
+        assertThat(r.chosenKey()).isIn("snaive", "poly1s", "poly2s", "ets");
+        assertThat(r.forecasts()).hasSize(6);
+        assertThat(r.forecasts().get(0).label()).isEqualTo("2027-01");
+        assertThat(r.reason()).isEqualTo("Lowest MSE over 6 rolling origins, 6 months ahead.");
+        assertThat(r.leaderboard()).extracting(LeaderboardEntry::key)
+                .contains("naive", "snaive", "drift", "mean", "ma2", "ma12", "wmafit4", "poly1", "poly3", "poly1s", "ets");
+        LeaderboardEntry first = r.leaderboard().get(0);
+        assertThat(first.rank()).isEqualTo(1);
+        assertThat(first.key()).isEqualTo(r.chosenKey());
+        assertThat(first.errorCount()).isEqualTo(36);
+        for (ForecastResult.ForecastPoint p : r.forecasts()) {
+            assertThat(p.lo95()).isLessThan(p.lo80());
+            assertThat(p.lo80()).isLessThan(p.forecast());
+            assertThat(p.hi80()).isGreaterThan(p.forecast());
+            assertThat(p.hi95()).isGreaterThan(p.hi80());
+        }
+    }
+
+    @Test
+    void leaderboardIsSortedByTheChosenMetricAndTheWinnerHasTheLowestScore() {
+        ForecastResult r = ForecastEngine.forecast(monthly(seasonalMonthly(40, 2)),
+                ForecastRequest.of(3).withMetric(Metric.MAE));
+        double previous = Double.NEGATIVE_INFINITY;
+        for (LeaderboardEntry e : r.leaderboard()) {
+            if (e.status() == LeaderboardEntry.Status.SCORED) {
+                assertThat(e.score(Metric.MAE)).isGreaterThanOrEqualTo(previous);
+                previous = e.score(Metric.MAE);
+            }
+        }
+        assertThat(r.reason()).startsWith("Lowest MAE");
+    }
+
+    @Test
+    void tiesGoToTheSimplerModel() {
+        // a constant series: every method forecasts it perfectly; naive (0 parameters) must win
+        double[] y = new double[30];
+        Arrays.fill(y, 50);
+        ForecastResult r = ForecastEngine.forecast(monthly(y), ForecastRequest.of(3).withSeasonalPeriod(1));
+        assertThat(r.chosenKey()).isEqualTo("naive");
+    }
+
+    @Test
+    void fallsBackToNaiveWithTooLittleHistoryAndSaysSo() {
+        ForecastResult r = ForecastEngine.forecast(monthly(new double[] {10, 12, 11, 13}), ForecastRequest.of(3));
+        assertThat(r.chosenKey()).isEqualTo("naive");
+        assertThat(r.originCount()).isZero();
+        assertThat(r.notes()).anyMatch(n -> n.contains("fell back to the naive method"));
+        assertThat(r.forecasts()).extracting(ForecastResult.ForecastPoint::forecast).containsOnly(13.0);
+        assertThat(r.leaderboard()).allMatch(e -> e.status() == LeaderboardEntry.Status.NOT_ENOUGH_HISTORY);
+    }
+
+    @Test
+    void refusesASeriesWithFewerThanTwoObservations() {
+        assertThatThrownBy(() -> ForecastEngine.forecast(monthly(new double[] {Double.NaN, 5, Double.NaN}),
+                ForecastRequest.of(1))).hasMessageContaining("need ≥ 2 observed periods, got 1");
+    }
+
+    @Test
+    void sameInputGivesTheSameOutput() {
+        Series s = monthly(seasonalMonthly(40, 3));
+        ForecastResult a = ForecastEngine.forecast(s, ForecastRequest.of(4));
+        ForecastResult b = ForecastEngine.forecast(s, ForecastRequest.of(4));
+        assertThat(a).isEqualTo(b);
+    }
+
+    @Test
+    void missingPeriodsAreFilledReportedAndNeverScored() {
+        double[] y = seasonalMonthly(40, 4);
+        y[20] = Double.NaN;
+        y[39] = Double.NaN;
+        ForecastResult r = ForecastEngine.forecast(monthly(y), ForecastRequest.of(2));
+        assertThat(r.notes()).anyMatch(n -> n.contains("1 missing period(s) inside the series were filled"));
+        assertThat(r.notes()).anyMatch(n -> n.contains("1 trailing period(s) without figures were skipped"));
+        assertThat(r.history()).hasSize(39);
+        assertThat(r.history().get(20).status()).isEqualTo("MISSING");
+        assertThat(r.forecasts().get(0).label()).isEqualTo("2026-04");
+    }
+
+    @Test
+    void closedDaysAreForecastAsZeroAndLeftOutOfScoring() {
+        LocalDate start = LocalDate.of(2026, 1, 5); // a Monday
+        int n = 10 * 7;
+        double[] y = new double[n];
+        java.util.Set<LocalDate> closed = new java.util.HashSet<>();
+        for (int t = 0; t < n + 14; t++) {
+            LocalDate d = start.plusDays(t);
+            boolean sunday = d.getDayOfWeek() == java.time.DayOfWeek.SUNDAY;
+            if (sunday) {
+                closed.add(d);
+            }
+            if (t < n) {
+                y[t] = sunday ? 0 : 500 + 100 * (t % 7);
+            }
+        }
+        Series s = new Series(Granularity.DAY, start, y, new CalendarFacts(closed, Set.of()));
+        ForecastResult r = ForecastEngine.forecast(s, ForecastRequest.of(14));
+        for (ForecastResult.ForecastPoint p : r.forecasts()) {
+            if (p.period().getDayOfWeek() == java.time.DayOfWeek.SUNDAY) {
+                assertThat(p.closed()).isTrue();
+                assertThat(p.forecast()).isZero();
+                assertThat(p.hi95()).isZero();
+            } else {
+                assertThat(p.forecast()).isGreaterThan(400);
+            }
+        }
+        assertThat(r.notes()).anyMatch(note -> note.contains("9 closed day(s) were left out"));
+    }
+
+    @Test
+    void candidateSubsetAndCustomWeightsAreHonoured() {
+        ForecastResult r = ForecastEngine.forecast(monthly(seasonalMonthly(36, 5)), ForecastRequest.of(3)
+                .withCandidates(Set.of("naive", "wma")).withCustomWeights(new double[] {0.5, 0.3, 0.2}));
+        assertThat(r.leaderboard()).extracting(LeaderboardEntry::key).containsExactlyInAnyOrder("naive", "wma");
+        assertThatThrownBy(() -> ForecastEngine.forecast(monthly(seasonalMonthly(36, 5)),
+                ForecastRequest.of(3).withCandidates(Set.of("nope")))).hasMessageContaining("unknown candidate 'nope'");
+    }
+
+    @Test
+    void movingAverageIntervalsComeFromRollingOriginErrors() {
+        ForecastResult r = ForecastEngine.forecast(monthly(seasonalMonthly(36, 6)),
+                ForecastRequest.of(3).withCandidates(Set.of("ma3")));
+        assertThat(r.intervalSource()).isEqualTo(ForecastResult.IntervalSource.ROLLING_ORIGIN_ERRORS);
+        ForecastResult.ForecastPoint p = r.forecastAt(1);
+        assertThat(p.hi95() - p.forecast()).isCloseTo(p.forecast() - p.lo95(), within(1e-9));
+        assertThat(p.hi95() - p.lo95()).isGreaterThan(p.hi80() - p.lo80());
+    }
+}

@@ -1,0 +1,141 @@
+package dev.tallyvane.engine.model;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+import static org.assertj.core.api.Assertions.within;
+
+import dev.tallyvane.engine.ReferenceData;
+import org.junit.jupiter.api.Test;
+
+class CandidatesTests {
+
+    /**
+     * NIST/SEMATECH e-Handbook §6.4.2.1 (single moving average, supplier data): the handbook's MA(3)
+     * includes the current value, so its M_t equals our one-step fitted value for period t + 1;
+     * printed to 3 decimals. MSE 2.42 is printed in the same section.
+     */
+    @Test
+    void movingAverageReproducesHandbookExample() {
+        ReferenceData ref = ReferenceData.load("nist-handbook-6.4.2-suppliers.txt");
+        double[] y = ref.column("amount");
+        double[] fitted = new MovingAverage(3).fit(y, 1).fitted();
+        double[] periods = ref.numbers("published.ma3.periods");
+        double[] ma = ref.numbers("published.ma3");
+        double sse = 0;
+        for (int i = 0; i < periods.length; i++) {
+            int t = (int) periods[i] - 1; // M_t covers y_{t-2..t}: the fitted value of period t+1
+            double m = t + 1 < y.length ? fitted[t + 1] : new MovingAverage(3).fit(y, 1).forecast(1).mean()[0];
+            assertThat(m).as("M_%d", t + 1).isCloseTo(ma[i], within(0.0005 + 1e-9));
+            sse += (y[t] - m) * (y[t] - m);
+        }
+        // e-Handbook §6.4.2.1: MSE = 2.42 (printed to 2 decimals); exact value from the file's computed key
+        assertThat(sse / periods.length).isCloseTo(ref.number("published.ma3.mse"), within(0.005));
+        assertThat(sse / periods.length).isCloseTo(ref.number("computed.ma3.mse"), within(1e-9));
+    }
+
+    /** NIST/SEMATECH e-Handbook §6.4.2: the mean as estimator, SSE and MSE of each estimator in the table. */
+    @Test
+    void historicalMeanMatchesHandbookMeanAndMse() {
+        ReferenceData ref = ReferenceData.load("nist-handbook-6.4.2-suppliers.txt");
+        double[] y = ref.column("amount");
+        FittedModel fit = new HistoricalMean().fit(y, 1);
+        assertThat(fit.parameters().get("mean")).isCloseTo(ref.number("published.mean"), within(1e-12));
+        double[] estimators = ref.numbers("published.estimators");
+        double[] mse = ref.numbers("published.mse.by_estimator");
+        for (int i = 0; i < estimators.length; i++) {
+            double sse = 0;
+            for (double v : y) {
+                sse += (v - estimators[i]) * (v - estimators[i]);
+            }
+            assertThat(sse / y.length).isCloseTo(mse[i], within(1e-9));
+        }
+        ReferenceData income = ReferenceData.load("nist-handbook-6.4.2-income.txt");
+        double[] x = income.column("income_musd");
+        FittedModel incomeFit = new HistoricalMean().fit(x, 1);
+        // e-Handbook §6.4.2: mean 48.676 and MSE 1.8129 (printed); exact values from the file's computed keys
+        assertThat(incomeFit.parameters().get("mean")).isCloseTo(income.number("published.mean"), within(0.0005));
+        double sse = 0;
+        for (int i = 0; i < x.length; i++) {
+            sse += Math.pow(x[i] - incomeFit.fitted()[i], 2);
+        }
+        assertThat(sse / x.length).isCloseTo(income.number("published.mse"), within(0.00005));
+        assertThat(sse / x.length).isCloseTo(income.number("computed.mse"), within(1e-7));
+    }
+
+    @Test
+    void naiveSeasonalNaiveAndDriftFollowTheirFormulas() {
+        double[] y = {10, 12, 14, 11, 13, 15, 12, 14, 16};
+        assertThat(new Naive().fit(y, 1).forecast(2).mean()).containsExactly(16, 16);
+        // FPP3 Table 5.2 (common practice formula): naive σ_h = σ√h
+        double[] sd = new Naive().fit(y, 1).forecast(4).sd();
+        assertThat(sd[3] / sd[0]).isCloseTo(2.0, within(1e-12));
+        assertThat(new SeasonalNaive().fit(y, 3).forecast(4).mean()).containsExactly(12, 14, 16, 12);
+        // drift: (16 − 10)/8 = 0.75 per period
+        assertThat(new Drift().fit(y, 1).forecast(2).mean()).containsExactly(16.75, 17.5);
+    }
+
+    @Test
+    void polynomialTrendRecoversAnExactCubicAndExtendsIt() {
+        double[] y = new double[30];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = 5 + 0.5 * t - 0.02 * t * t + 0.001 * t * t * t;
+        }
+        PointForecast f = new PolynomialTrend(3, false).fit(y, 1).forecast(2);
+        assertThat(f.mean()[0]).isCloseTo(5 + 0.5 * 30 - 0.02 * 900 + 0.001 * 27000, within(1e-8));
+        assertThat(f.mean()[1]).isCloseTo(5 + 0.5 * 31 - 0.02 * 961 + 0.001 * 29791, within(1e-8));
+    }
+
+    @Test
+    void polynomialTrendWithSeasonalDummiesFitsAnExactSeasonalPattern() {
+        double[] pattern = {3, -1, -2};
+        double[] y = new double[24];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = 100 + 2 * t + pattern[t % 3];
+        }
+        PointForecast f = new PolynomialTrend(1, true).fit(y, 3).forecast(3);
+        for (int h = 0; h < 3; h++) {
+            assertThat(f.mean()[h]).isCloseTo(100 + 2 * (24 + h) + pattern[(24 + h) % 3], within(1e-8));
+        }
+        assertThat(f.degreesOfFreedom()).isEqualTo(24 - 4);
+    }
+
+    @Test
+    void fittedWeightsRecoverAKnownWeightedAverageProcess() {
+        // y_t = 0.7 y_{t−1} + 0.3 y_{t−2} + ε_t: weights on the simplex, identifiable thanks to the noise
+        java.util.Random random = new java.util.Random(11);
+        double[] y = new double[5000];
+        y[0] = 100;
+        y[1] = 101;
+        for (int t = 2; t < y.length; t++) {
+            y[t] = 0.7 * y[t - 1] + 0.3 * y[t - 2] + random.nextGaussian();
+        }
+        double[] w = WeightedMovingAverage.fitWeights(y, 4);
+        assertThat(w[0]).isCloseTo(0.7, within(0.05));
+        assertThat(w[1]).isCloseTo(0.3, within(0.05));
+        assertThat(w[0] + w[1] + w[2] + w[3]).isCloseTo(1.0, within(1e-9));
+        for (double v : w) {
+            assertThat(v).isGreaterThanOrEqualTo(0);
+        }
+    }
+
+    @Test
+    void userWeightsAreValidated() {
+        assertThatThrownBy(() -> WeightedMovingAverage.withWeights(0.5, 0.6)).hasMessageContaining("sum to 1");
+        assertThatThrownBy(() -> WeightedMovingAverage.withWeights(1.2, -0.2)).hasMessageContaining("w2 = -0.2");
+        assertThatThrownBy(() -> WeightedMovingAverage.withWeights(0.5, 0.3, 0.2).fit(new double[] {1, 2}, 1))
+                .hasMessageContaining("3 weights need at least as many periods");
+        double[] y = {10, 20, 30, 40};
+        // ŷ = 0.5·40 + 0.3·30 + 0.2·20 = 33
+        assertThat(WeightedMovingAverage.withWeights(0.5, 0.3, 0.2).fit(y, 1).forecast(1).mean()[0])
+                .isCloseTo(33, within(1e-12));
+    }
+
+    @Test
+    void everyCandidateRefusesTooShortHistoryWithAMessageNamingTheCounts() {
+        assertThatThrownBy(() -> new MovingAverage(5).fit(new double[] {1, 2, 3}, 1))
+                .hasMessageContaining("needs ≥ 5 periods, got 3");
+        assertThatThrownBy(() -> new ExponentialSmoothing(EtsForm.HW_ADDITIVE).fit(new double[10], 12))
+                .hasMessageContaining("needs ≥ 26 periods, got 10");
+        assertThatThrownBy(() -> new PolynomialTrend(4, false)).hasMessageContaining("got 4");
+    }
+}
