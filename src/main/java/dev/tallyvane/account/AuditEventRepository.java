@@ -1,0 +1,6 @@
+package dev.tallyvane.account;
+
+import org.springframework.data.jpa.repository.JpaRepository;
+
+interface AuditEventRepository extends JpaRepository<AuditEvent, Long> {
+}

@@ -1,0 +1,50 @@
+package dev.tallyvane.account.web;
+
+import dev.tallyvane.account.Role;
+import dev.tallyvane.account.UserService;
+import dev.tallyvane.system.InvalidRequest;
+import org.springframework.stereotype.Controller;
+import org.springframework.ui.Model;
+import org.springframework.web.bind.annotation.GetMapping;
+import org.springframework.web.bind.annotation.PostMapping;
+
+/** The sign-in page and the one-time setup of the owner account. */
+@Controller
+class SignInController {
+
+    private final UserService users;
+
+    SignInController(UserService users) {
+        this.users = users;
+    }
+
+    @GetMapping("/login")
+    String login() {
+        return users.needsSetup() ? "redirect:/setup" : "account/login";
+    }
+
+    /** The setup form. */
+    record SetupForm(String username, String displayName, String email, String password, String passwordAgain) {
+    }
+
+    @GetMapping("/setup")
+    String setup() {
+        return users.needsSetup() ? "account/setup" : "redirect:/login";
+    }
+
+    @PostMapping("/setup")
+    String setUp(SetupForm form, Model model) {
+        if (!users.needsSetup()) {
+            return "redirect:/login";
+        }
+        try {
+            users.setUpOwner(new UserService.NewUser(form.username(), form.displayName(), form.email(), form.password(),
+                    form.passwordAgain(), Role.OWNER));
+        } catch (InvalidRequest e) {
+            model.addAttribute("problems", e.problems());
+            model.addAttribute("form", form);
+            return "account/setup";
+        }
+        return "redirect:/login?setupDone";
+    }
+}

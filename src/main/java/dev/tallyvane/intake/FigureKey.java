@@ -1,0 +1,8 @@
+package dev.tallyvane.intake;
+
+import dev.tallyvane.engine.series.Granularity;
+import java.time.LocalDate;
+
+/** Identity of one figure: location × measure × granularity × period. */
+public record FigureKey(long locationId, String measure, Granularity granularity, LocalDate periodStart) {
+}

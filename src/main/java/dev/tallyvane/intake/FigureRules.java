@@ -1,0 +1,100 @@
+package dev.tallyvane.intake;
+
+import dev.tallyvane.location.Location;
+import dev.tallyvane.system.InvalidRequest.FieldProblem;
+import dev.tallyvane.system.TallyvaneProperties;
+import java.math.BigDecimal;
+import java.time.Clock;
+import java.time.LocalDate;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.regex.Pattern;
+import org.springframework.stereotype.Component;
+
+/**
+ * The rules every submitted figure must meet, whichever way it arrives (API or upload). Returns
+ * every problem, never just the first.
+ */
+@Component
+public class FigureRules {
+
+    public static final String DEFAULT_MEASURE = "net_sales";
+    public static final Pattern MEASURE = Pattern.compile("[a-z][a-z0-9_]{0,39}");
+    static final BigDecimal LIMIT = new BigDecimal("1e13");
+
+    private final TallyvaneProperties properties;
+    private final Clock clock;
+
+    FigureRules(TallyvaneProperties properties, Clock clock) {
+        this.properties = properties;
+        this.clock = clock;
+    }
+
+    /**
+     * Checks the figures.
+     *
+     * @param locations      known locations by code
+     * @param toBeCreated    codes the user confirmed to create (uploads only); accepted as unknown
+     * @param onlyLocationId when set, every figure must be for this location
+     * @param indexName      "item" (API) or "row" (uploads), for the duplicate message
+     */
+    public List<FieldProblem> check(List<FigureInput> figures, Map<String, Location> locations, Set<String> toBeCreated,
+            Long onlyLocationId, String indexName) {
+        List<FieldProblem> problems = new ArrayList<>();
+        Map<String, Integer> seen = new HashMap<>();
+        LocalDate earliest = properties.intake().earliestDate();
+        int tolerance = properties.intake().futureToleranceDays();
+        for (FigureInput f : figures) {
+            Location location = locations.get(f.locationCode());
+            int i = f.index();
+            if (location == null) {
+                if (!toBeCreated.contains(f.locationCode())) {
+                    problems.add(new FieldProblem(i, "location", "unknown location '" + f.locationCode() + "'"));
+                }
+            } else {
+                if (!location.isActive()) {
+                    problems.add(new FieldProblem(i, "location", "location '" + f.locationCode() + "' is closed"));
+                }
+                if (onlyLocationId != null && !onlyLocationId.equals(location.getId())) {
+                    problems.add(new FieldProblem(i, "location", "this API token may not write location '"
+                            + f.locationCode() + "'"));
+                }
+            }
+            if (!MEASURE.matcher(f.measure()).matches()) {
+                problems.add(new FieldProblem(i, "measure", "'" + f.measure() + "' is not a measure name: use lower-case "
+                        + "letters, digits and '_', e.g. net_sales"));
+            }
+            LocalDate today = LocalDate.now(location == null ? clock : clock.withZone(location.zone()));
+            if (f.periodStart().isBefore(earliest)) {
+                problems.add(new FieldProblem(i, "period", "period " + f.granularity().label(f.periodStart())
+                        + " is before " + earliest));
+            } else if (f.periodStart().isAfter(today.plusDays(tolerance))) {
+                problems.add(new FieldProblem(i, "period", "period " + f.granularity().label(f.periodStart())
+                        + " is in the future (today is " + today + " at the location)"));
+            } else if (location != null && location.getOpenedOn() != null
+                    && f.granularity().periodEnd(f.periodStart()).isBefore(location.getOpenedOn())) {
+                problems.add(new FieldProblem(i, "period", "period " + f.granularity().label(f.periodStart())
+                        + " ends before the location opened on " + location.getOpenedOn()));
+            }
+            BigDecimal amount = f.amount();
+            int digits = location == null ? 2 : Math.max(0, location.currency().getDefaultFractionDigits());
+            if (amount.abs().compareTo(LIMIT) >= 0) {
+                problems.add(new FieldProblem(i, "amount", "amount " + amount.toPlainString() + " is too large"));
+            } else if (amount.stripTrailingZeros().scale() > digits) {
+                problems.add(new FieldProblem(i, "amount", "amount " + amount.toPlainString() + " has more than "
+                        + digits + " decimal" + (digits == 1 ? "" : "s")
+                        + (location == null ? "" : " (" + location.getCurrency() + ")")));
+            }
+            String key = f.locationCode() + "|" + f.measure() + "|" + f.granularity() + "|" + f.periodStart();
+            Integer first = seen.putIfAbsent(key, i);
+            if (first != null) {
+                problems.add(new FieldProblem(i, "period", "duplicate: " + indexName + " " + first + " already gives "
+                        + f.measure() + " for " + f.locationCode() + " " + f.granularity().label(f.periodStart())));
+            }
+        }
+        return problems;
+    }
+}

@@ -1,0 +1,144 @@
+package dev.tallyvane.intake;
+
+import dev.tallyvane.engine.series.Granularity;
+import java.math.BigDecimal;
+import java.sql.Timestamp;
+import java.sql.Types;
+import java.time.Instant;
+import java.time.LocalDate;
+import java.util.ArrayList;
+import java.util.Collection;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import org.springframework.jdbc.core.JdbcTemplate;
+import org.springframework.jdbc.core.namedparam.MapSqlParameterSource;
+import org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate;
+import org.springframework.stereotype.Repository;
+
+/**
+ * Plain-JDBC access to {@code figure_revision}: bulk reads of current values and batched writes
+ * (row-by-row JPA would be far too slow for a 100,000-figure post).
+ */
+@Repository
+class FigureStore {
+
+    private static final int BATCH = 2_000;
+
+    private final JdbcTemplate jdbc;
+    private final NamedParameterJdbcTemplate named;
+
+    FigureStore(JdbcTemplate jdbc) {
+        this.jdbc = jdbc;
+        this.named = new NamedParameterJdbcTemplate(jdbc);
+    }
+
+    /** The current value of a figure: the revision row's id and amount. */
+    record Current(long revisionId, BigDecimal amount) {
+    }
+
+    /** Locks the location rows (in id order, so two writers never deadlock) until the transaction ends. */
+    void lockLocations(Collection<Long> locationIds) {
+        if (locationIds.isEmpty()) {
+            return;
+        }
+        named.queryForList("select id from location where id in (:ids) order by id for update",
+                new MapSqlParameterSource("ids", locationIds), Long.class);
+    }
+
+    /** Current values of one measure and granularity for these locations between two periods. */
+    Map<FigureKey, Current> current(Collection<Long> locationIds, String measure, Granularity granularity,
+            LocalDate from, LocalDate to) {
+        Map<FigureKey, Current> out = new HashMap<>();
+        List<Long> ids = new ArrayList<>(locationIds);
+        for (int i = 0; i < ids.size(); i += 1000) {
+            MapSqlParameterSource p = new MapSqlParameterSource("ids", ids.subList(i, Math.min(ids.size(), i + 1000)))
+                    .addValue("measure", measure).addValue("granularity", granularity.name())
+                    .addValue("from", from).addValue("to", to);
+            named.query("select id, location_id, period_start, amount from figure_revision "
+                    + "where location_id in (:ids) and measure = :measure and granularity = :granularity "
+                    + "and superseded_at is null and period_start between :from and :to", p, rs -> {
+                        out.put(new FigureKey(rs.getLong(2), measure, granularity, rs.getObject(3, LocalDate.class)),
+                                new Current(rs.getLong(1), rs.getBigDecimal(4)));
+                    });
+        }
+        return out;
+    }
+
+    /** A value to write. */
+    record NewRevision(FigureKey key, BigDecimal amount) {
+    }
+
+    /** Marks the given revisions as superseded at {@code at}. */
+    void supersede(List<Long> revisionIds, Instant at) {
+        Timestamp ts = Timestamp.from(at);
+        for (int i = 0; i < revisionIds.size(); i += BATCH) {
+            List<Long> chunk = revisionIds.subList(i, Math.min(revisionIds.size(), i + BATCH));
+            jdbc.batchUpdate("update figure_revision set superseded_at = ? where id = ?", chunk, chunk.size(),
+                    (ps, id) -> {
+                        ps.setTimestamp(1, ts);
+                        ps.setLong(2, id);
+                    });
+        }
+    }
+
+    /** Inserts new current values. */
+    void insert(List<NewRevision> revisions, Instant at, Submitter submitter) {
+        Timestamp ts = Timestamp.from(at);
+        for (int i = 0; i < revisions.size(); i += BATCH) {
+            List<NewRevision> chunk = revisions.subList(i, Math.min(revisions.size(), i + BATCH));
+            jdbc.batchUpdate("insert into figure_revision (location_id, measure, granularity, period_start, amount, "
+                    + "recorded_at, source, actor, upload_id) values (?, ?, ?, ?, ?, ?, ?, ?, ?)", chunk, chunk.size(),
+                    (ps, r) -> {
+                        ps.setLong(1, r.key().locationId());
+                        ps.setString(2, r.key().measure());
+                        ps.setString(3, r.key().granularity().name());
+                        ps.setObject(4, r.key().periodStart());
+                        ps.setBigDecimal(5, r.amount());
+                        ps.setTimestamp(6, ts);
+                        ps.setString(7, submitter.source().name());
+                        ps.setString(8, submitter.actor());
+                        if (submitter.uploadId() == null) {
+                            ps.setNull(9, Types.BIGINT);
+                        } else {
+                            ps.setLong(9, submitter.uploadId());
+                        }
+                    });
+        }
+    }
+
+    /** A stored value read back: period, granularity, amount. */
+    record Stored(LocalDate periodStart, Granularity granularity, BigDecimal amount) {
+    }
+
+    /**
+     * The values of a location's measure at the given granularities, as they were known at
+     * {@code asOf} (null = now), optionally between two period starts.
+     */
+    List<Stored> read(long locationId, String measure, Collection<Granularity> granularities, Instant asOf,
+            LocalDate from, LocalDate to) {
+        MapSqlParameterSource p = new MapSqlParameterSource("location", locationId).addValue("measure", measure)
+                .addValue("granularities", granularities.stream().map(Enum::name).toList())
+                .addValue("from", from == null ? LocalDate.of(1900, 1, 1) : from)
+                .addValue("to", to == null ? LocalDate.of(9999, 12, 31) : to);
+        String when;
+        if (asOf == null) {
+            when = "superseded_at is null";
+        } else {
+            p.addValue("asOf", Timestamp.from(asOf));
+            when = "recorded_at <= :asOf and (superseded_at is null or superseded_at > :asOf)";
+        }
+        return named.query("select period_start, granularity, amount from figure_revision where location_id = :location "
+                + "and measure = :measure and granularity in (:granularities) and period_start between :from and :to and "
+                + when + " order by period_start", p,
+                (rs, i) -> new Stored(rs.getObject(1, LocalDate.class), Granularity.valueOf(rs.getString(2)),
+                        rs.getBigDecimal(3)));
+    }
+
+    /** Every revision of one figure, oldest first. */
+    List<Map<String, Object>> revisions(FigureKey key) {
+        return jdbc.queryForList("select amount, recorded_at, superseded_at, source, actor, upload_id from figure_revision "
+                + "where location_id = ? and measure = ? and granularity = ? and period_start = ? order by recorded_at, id",
+                key.locationId(), key.measure(), key.granularity().name(), key.periodStart());
+    }
+}

@@ -1,0 +1,78 @@
+package dev.tallyvane.intake;
+
+import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.location.Location;
+import java.math.BigDecimal;
+import java.time.Instant;
+import java.time.LocalDate;
+import java.time.temporal.ChronoUnit;
+import java.util.ArrayList;
+import java.util.EnumSet;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeMap;
+import org.springframework.stereotype.Service;
+import org.springframework.transaction.annotation.Transactional;
+
+/**
+ * Reads a location's series at a granularity, now or as known at a past moment.
+ *
+ * <p><b>Roll-ups</b>: daily figures roll up into weeks (ISO, Monday start) and months on read. When
+ * a figure was recorded directly at the requested granularity (a bookkeeper's monthly total) it
+ * wins over the sum of the daily figures for that period: the bookkeeper's closed books are the
+ * reference. Weeks do not roll up into months (a week can straddle two months).
+ */
+@Service
+public class SeriesReader {
+
+    private final FigureStore store;
+
+    SeriesReader(FigureStore store) {
+        this.store = store;
+    }
+
+    /**
+     * One period of a series.
+     *
+     * @param days     for a roll-up, the daily figures summed; 0 for a directly recorded figure
+     * @param complete false for a roll-up missing some days of its period
+     */
+    public record Point(LocalDate period, String label, BigDecimal amount, String origin, int days, boolean complete) {
+    }
+
+    /** A series as read. */
+    public record SeriesView(String location, String measure, Granularity granularity, Instant asOf,
+            List<Point> points) {
+    }
+
+    @Transactional(readOnly = true)
+    public SeriesView read(Location location, String measure, Granularity granularity, Instant asOf, LocalDate from,
+            LocalDate to) {
+        EnumSet<Granularity> wanted = granularity == Granularity.DAY ? EnumSet.of(Granularity.DAY)
+                : EnumSet.of(granularity, Granularity.DAY);
+        LocalDate dayFrom = from == null ? null : granularity.periodStart(from);
+        LocalDate dayTo = to == null ? null : granularity.periodEnd(granularity.periodStart(to));
+        Map<LocalDate, Point> direct = new TreeMap<>();
+        Map<LocalDate, BigDecimal> sums = new TreeMap<>();
+        Map<LocalDate, Integer> days = new TreeMap<>();
+        for (FigureStore.Stored s : store.read(location.getId(), measure, wanted, asOf, dayFrom, dayTo)) {
+            if (s.granularity() == granularity) {
+                direct.put(s.periodStart(), new Point(s.periodStart(), granularity.label(s.periodStart()),
+                        s.amount().stripTrailingZeros(), "recorded", 0, true));
+            } else {
+                LocalDate p = granularity.periodStart(s.periodStart());
+                sums.merge(p, s.amount(), BigDecimal::add);
+                days.merge(p, 1, Integer::sum);
+            }
+        }
+        Map<LocalDate, Point> all = new TreeMap<>(direct);
+        sums.forEach((p, sum) -> {
+            if (!direct.containsKey(p)) {
+                int n = days.get(p);
+                long length = ChronoUnit.DAYS.between(p, granularity.plus(p, 1));
+                all.put(p, new Point(p, granularity.label(p), sum.stripTrailingZeros(), "days", n, n == length));
+            }
+        });
+        return new SeriesView(location.getCode(), measure, granularity, asOf, new ArrayList<>(all.values()));
+    }
+}

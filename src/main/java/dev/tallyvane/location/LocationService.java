@@ -1,0 +1,113 @@
+package dev.tallyvane.location;
+
+import dev.tallyvane.system.InvalidRequest;
+import dev.tallyvane.system.InvalidRequest.FieldProblem;
+import java.time.Clock;
+import java.time.DateTimeException;
+import java.time.LocalDate;
+import java.time.ZoneId;
+import java.util.ArrayList;
+import java.util.Currency;
+import java.util.List;
+import java.util.Locale;
+import java.util.regex.Pattern;
+import org.springframework.stereotype.Service;
+import org.springframework.transaction.annotation.Transactional;
+
+/** Creating, changing and finding locations; every rule of a valid location lives here. */
+@Service
+public class LocationService {
+
+    public static final Pattern CODE = Pattern.compile("[A-Z0-9][A-Z0-9_-]{0,31}");
+
+    private final LocationRepository locations;
+    private final Clock clock;
+
+    LocationService(LocationRepository locations, Clock clock) {
+        this.locations = locations;
+        this.clock = clock;
+    }
+
+    /** Upper-cases and trims a code as stored. */
+    public static String normaliseCode(String code) {
+        return code == null ? "" : code.trim().toUpperCase(Locale.ROOT);
+    }
+
+    @Transactional(readOnly = true)
+    public List<Location> all() {
+        return locations.findAllByOrderByCodeAsc();
+    }
+
+    @Transactional(readOnly = true)
+    public Location byCode(String code) {
+        return locations.findByCode(normaliseCode(code)).orElseThrow(() -> new UnknownLocation(code));
+    }
+
+    @Transactional(readOnly = true)
+    public Location byId(long id) {
+        return locations.findById(id).orElseThrow(() -> new UnknownLocation("#" + id));
+    }
+
+    @Transactional
+    public Location create(LocationDetails details) {
+        Valid v = validate(details, true);
+        if (locations.findByCode(v.code).isPresent()) {
+            throw new LocationCodeTaken(v.code);
+        }
+        return locations.save(new Location(v.code, v.name, v.zone, v.currency, v.openedOn, clock.instant()));
+    }
+
+    @Transactional
+    public Location update(String code, LocationDetails details) {
+        Location location = byCode(code);
+        Valid v = validate(details, false);
+        location.update(v.name, v.zone, v.currency, v.openedOn, v.status);
+        return location;
+    }
+
+    private record Valid(String code, String name, ZoneId zone, Currency currency, LocalDate openedOn,
+            Location.Status status) {
+    }
+
+    private Valid validate(LocationDetails d, boolean creating) {
+        List<FieldProblem> problems = new ArrayList<>();
+        String code = normaliseCode(d.code());
+        if (creating && !CODE.matcher(code).matches()) {
+            problems.add(new FieldProblem(null, "code",
+                    "use 1–32 letters, digits, '-' or '_', starting with a letter or digit"));
+        }
+        String name = d.name() == null ? "" : d.name().strip();
+        if (name.isEmpty() || name.length() > 200) {
+            problems.add(new FieldProblem(null, "name", "give a name of 1–200 characters"));
+        }
+        ZoneId zone = null;
+        try {
+            zone = ZoneId.of(d.timeZone() == null ? "" : d.timeZone().trim());
+        } catch (DateTimeException e) {
+            problems.add(new FieldProblem(null, "timeZone", "'" + d.timeZone() + "' is not a time zone; use a name "
+                    + "such as Europe/Berlin"));
+        }
+        Currency currency = null;
+        try {
+            currency = Currency.getInstance(d.currency() == null ? "" : d.currency().trim().toUpperCase(Locale.ROOT));
+        } catch (IllegalArgumentException e) {
+            problems.add(new FieldProblem(null, "currency", "'" + d.currency() + "' is not an ISO 4217 currency "
+                    + "code such as EUR"));
+        }
+        if (d.openedOn() != null && d.openedOn().isAfter(LocalDate.now(clock).plusYears(1))) {
+            problems.add(new FieldProblem(null, "openedOn", "opening date is more than a year ahead"));
+        }
+        Location.Status status = Location.Status.ACTIVE;
+        if (d.status() != null && !d.status().isBlank()) {
+            try {
+                status = Location.Status.valueOf(d.status().trim().toUpperCase(Locale.ROOT));
+            } catch (IllegalArgumentException e) {
+                problems.add(new FieldProblem(null, "status", "use ACTIVE or CLOSED"));
+            }
+        }
+        if (!problems.isEmpty()) {
+            throw new InvalidRequest("The location has invalid values.", problems);
+        }
+        return new Valid(code, name, zone, currency, d.openedOn(), status);
+    }
+}

@@ -1,0 +1,99 @@
+package dev.tallyvane.location.web;
+
+import dev.tallyvane.intake.FigureFacts;
+import dev.tallyvane.location.Location;
+import dev.tallyvane.location.LocationDetails;
+import dev.tallyvane.location.LocationService;
+import dev.tallyvane.location.UnknownLocation;
+import dev.tallyvane.location.LocationCodeTaken;
+import dev.tallyvane.system.InvalidRequest;
+import java.time.LocalDate;
+import java.util.List;
+import org.springframework.http.HttpStatus;
+import org.springframework.stereotype.Controller;
+import org.springframework.ui.Model;
+import org.springframework.web.bind.annotation.ExceptionHandler;
+import org.springframework.web.bind.annotation.GetMapping;
+import org.springframework.web.bind.annotation.PathVariable;
+import org.springframework.web.bind.annotation.PostMapping;
+import org.springframework.web.bind.annotation.ResponseStatus;
+
+/** The locations list (the home page), adding a location and changing one. */
+@Controller
+class LocationsController {
+
+    private final LocationService locations;
+    private final FigureFacts figures;
+
+    LocationsController(LocationService locations, FigureFacts figures) {
+        this.locations = locations;
+        this.figures = figures;
+    }
+
+    @GetMapping({"/", "/locations"})
+    String list(Model model) {
+        List<Location> all = locations.all();
+        model.addAttribute("locations", all);
+        model.addAttribute("summaries", figures.summaries());
+        return "locations/list";
+    }
+
+    /** The location form. */
+    record LocationForm(String code, String name, String timeZone, String currency, LocalDate openedOn, String status) {
+        LocationDetails details() {
+            return new LocationDetails(code, name, timeZone, currency, openedOn, status);
+        }
+    }
+
+    @GetMapping("/locations/new")
+    String newForm(Model model) {
+        model.addAttribute("form", new LocationForm("", "", "Europe/Berlin", "EUR", null, "ACTIVE"));
+        return "locations/form";
+    }
+
+    @PostMapping("/locations")
+    String create(LocationForm form, Model model) {
+        try {
+            Location l = locations.create(form.details());
+            return "redirect:/locations/" + l.getCode();
+        } catch (InvalidRequest e) {
+            model.addAttribute("problems", e.problems());
+        } catch (LocationCodeTaken e) {
+            model.addAttribute("problems", List.of(new InvalidRequest.FieldProblem(null, "code", e.getMessage())));
+        }
+        model.addAttribute("form", form);
+        return "locations/form";
+    }
+
+    @GetMapping("/locations/{code}")
+    String detail(@PathVariable String code, Model model) {
+        Location l = locations.byCode(code);
+        model.addAttribute("location", l);
+        model.addAttribute("form", new LocationForm(l.getCode(), l.getName(), l.getTimeZone(), l.getCurrency(),
+                l.getOpenedOn(), l.getStatus().name()));
+        model.addAttribute("recent", figures.recent(l.getId(), 60));
+        return "locations/detail";
+    }
+
+    @PostMapping("/locations/{code}")
+    String update(@PathVariable String code, LocationForm form, Model model) {
+        try {
+            locations.update(code, form.details());
+            return "redirect:/locations/" + locations.byCode(code).getCode() + "?saved";
+        } catch (InvalidRequest e) {
+            Location l = locations.byCode(code);
+            model.addAttribute("location", l);
+            model.addAttribute("form", form);
+            model.addAttribute("recent", figures.recent(l.getId(), 60));
+            model.addAttribute("problems", e.problems());
+            return "locations/detail";
+        }
+    }
+
+    @ExceptionHandler(UnknownLocation.class)
+    @ResponseStatus(HttpStatus.NOT_FOUND)
+    String unknown(UnknownLocation e, Model model) {
+        model.addAttribute("message", e.getMessage());
+        return "error/not-found";
+    }
+}
