@@ -24,7 +24,7 @@ import org.springframework.web.servlet.resource.NoResourceFoundException;
  * Turns exceptions of the REST API into RFC 9457 {@code application/problem+json} answers with
  * the right status, and never lets an unexpected one out as a stack trace.
  */
-@RestControllerAdvice(basePackages = "dev.tallyvane")
+@RestControllerAdvice(annotations = org.springframework.web.bind.annotation.RestController.class)
 public class ProblemResponses {
 
     private static final Logger log = LoggerFactory.getLogger(ProblemResponses.class);

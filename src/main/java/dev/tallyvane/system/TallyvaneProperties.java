@@ -10,10 +10,20 @@ import org.springframework.boot.context.properties.ConfigurationProperties;
  * @param intake  limits and rules of figure intake
  */
 @ConfigurationProperties("tallyvane")
-public record TallyvaneProperties(String dataDir, Intake intake) {
+public record TallyvaneProperties(String dataDir, Intake intake, Defaults defaults) {
 
     public TallyvaneProperties {
         intake = intake == null ? new Intake(100_000, 25_000_000, 100_000, 1, LocalDate.of(2000, 1, 1)) : intake;
+        defaults = defaults == null ? new Defaults("Europe/Berlin", "EUR") : defaults;
+    }
+
+    /**
+     * Settings of locations created from an upload when no location exists yet to copy them from.
+     *
+     * @param timeZone IANA time zone
+     * @param currency ISO 4217 code
+     */
+    public record Defaults(String timeZone, String currency) {
     }
 
     /**

@@ -3,6 +3,8 @@ package dev.tallyvane.account.web;
 import dev.tallyvane.account.Role;
 import dev.tallyvane.account.UserService;
 import dev.tallyvane.system.InvalidRequest;
+import org.springframework.security.authentication.LockedException;
+import org.springframework.security.web.WebAttributes;
 import org.springframework.stereotype.Controller;
 import org.springframework.ui.Model;
 import org.springframework.web.bind.annotation.GetMapping;
@@ -19,8 +21,21 @@ class SignInController {
     }
 
     @GetMapping("/login")
-    String login() {
-        return users.needsSetup() ? "redirect:/setup" : "account/login";
+    String login(jakarta.servlet.http.HttpServletRequest request, Model model) {
+        if (users.needsSetup()) {
+            return "redirect:/setup";
+        }
+        var session = request.getSession(false);
+        Object last = session == null ? null : session.getAttribute(WebAttributes.AUTHENTICATION_EXCEPTION);
+        if (request.getParameter("error") != null && last instanceof Throwable t) {
+            // the user lookup's LockedException arrives wrapped by the authentication provider
+            for (Throwable c = t; c != null; c = c.getCause() == c ? null : c.getCause()) {
+                if (c instanceof LockedException locked) {
+                    model.addAttribute("loginError", locked.getMessage());
+                }
+            }
+        }
+        return "account/login";
     }
 
     /** The setup form. */

@@ -1,0 +1,299 @@
+package dev.tallyvane.intake.upload;
+
+import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.intake.FigureInput;
+import dev.tallyvane.intake.FigureRules;
+import dev.tallyvane.location.LocationService;
+import dev.tallyvane.system.InvalidRequest.FieldProblem;
+import java.math.BigDecimal;
+import java.time.DateTimeException;
+import java.time.LocalDate;
+import java.util.ArrayList;
+import java.util.EnumMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+
+/**
+ * Turns an uploaded table into figures. The layout: a header row with the columns
+ * {@code location}, {@code period} (or {@code date}), {@code amount} and optionally {@code measure}
+ * (default net_sales), in any order. Periods: yyyy-MM-dd, dd/MM/yyyy or MM/dd/yyyy (also with
+ * '.' or '-'), yyyy-MM or MM/yyyy for months, yyyy-Www for ISO weeks, or date cells. Amounts:
+ * numbers, or text with currency symbols, spaces and thousands marks. Every problem names its row
+ * and field; when day/month order or the decimal mark cannot be told from the file, the parse says
+ * so instead of guessing.
+ */
+final class UploadParser {
+
+    private static final Set<String> KNOWN = Set.of("location", "period", "date", "amount", "measure");
+    private static final Pattern DMY = Pattern.compile("(\\d{1,2})[./-](\\d{1,2})[./-](\\d{4})");
+    private static final Pattern MY = Pattern.compile("(\\d{1,2})[./-](\\d{4})");
+    private static final Pattern NOISE = Pattern.compile("[\\s\\u00A0\\u202F'’]|[^\\d.,()+\\-]");
+
+    private UploadParser() {
+    }
+
+    /**
+     * The result.
+     *
+     * @param needsDateOrder   day/month order could not be told: ask the user
+     * @param needsNumberStyle the decimal mark could not be told: ask the user
+     * @param usedOptions      the options in effect after detection
+     */
+    record Parsed(List<FigureInput> figures, List<FieldProblem> problems, int rowCount, boolean needsDateOrder,
+            boolean needsNumberStyle, UploadOptions usedOptions) {
+    }
+
+    static Parsed parse(RawTable table, UploadOptions options) {
+        String periodColumn = table.header().contains("period") ? "period" : "date";
+        List<String> missing = new ArrayList<>();
+        for (String required : List.of("location", periodColumn, "amount")) {
+            if (!table.header().contains(required)) {
+                missing.add(required.equals("date") ? "period" : required);
+            }
+        }
+        List<String> unknown = table.header().stream().filter(h -> !KNOWN.contains(h)).toList();
+        if (!missing.isEmpty() || !unknown.isEmpty()) {
+            throw new UploadRejected("The columns do not fit: the file needs the columns location, period, amount "
+                    + "(and optionally measure)" + (missing.isEmpty() ? "" : "; missing: " + String.join(", ", missing))
+                    + (unknown.isEmpty() ? "" : "; not understood: " + String.join(", ", unknown))
+                    + ". Download the template to see the layout.");
+        }
+        if (table.rows().isEmpty()) {
+            throw new UploadRejected("The file has a header but no figures.");
+        }
+        UploadOptions.DateOrder order = options.dateOrder();
+        boolean needsOrder = false;
+        if (order == UploadOptions.DateOrder.AUTO) {
+            order = detectOrder(table, periodColumn);
+            needsOrder = order == null;
+        }
+        UploadOptions.NumberStyle style = options.numberStyle();
+        boolean needsStyle = false;
+        if (style == UploadOptions.NumberStyle.AUTO) {
+            style = detectStyle(table);
+            needsStyle = style == null;
+        }
+        List<FigureInput> figures = new ArrayList<>();
+        List<FieldProblem> problems = new ArrayList<>();
+        for (RawTable.Row row : table.rows()) {
+            int n = row.number();
+            int before = problems.size();
+            if (row.cells().containsKey("#extra")) {
+                problems.add(new FieldProblem(n, "row", "more cells than the header has columns"));
+            }
+            String location = text(row, "location", n, problems);
+            String measure = row.cells().containsKey("measure") ? text(row, "measure", n, problems)
+                    : FigureRules.DEFAULT_MEASURE;
+            Period period = needsOrder ? null : period(row.cells().get(periodColumn), order, n, problems);
+            BigDecimal amount = needsStyle ? null : amount(row.cells().get("amount"), style, n, problems);
+            if (problems.size() == before && !needsOrder && !needsStyle) {
+                figures.add(new FigureInput(n, LocationService.normaliseCode(location),
+                        measure == null || measure.isBlank() ? FigureRules.DEFAULT_MEASURE : measure.trim(),
+                        period.granularity(), period.start(), amount));
+            }
+        }
+        mixedGranularities(figures, problems);
+        problems.sort(java.util.Comparator.comparing(FieldProblem::index));
+        return new Parsed(figures, problems, table.rows().size(), needsOrder, needsStyle,
+                new UploadOptions(order == null ? UploadOptions.DateOrder.AUTO : order,
+                        style == null ? UploadOptions.NumberStyle.AUTO : style));
+    }
+
+    private record Period(Granularity granularity, LocalDate start) {
+    }
+
+    private static String text(RawTable.Row row, String column, int n, List<FieldProblem> problems) {
+        RawValue v = row.cells().get(column);
+        if (v instanceof RawValue.Text t && !t.value().isBlank()) {
+            return t.value().trim();
+        }
+        if (v instanceof RawValue.Number num) {
+            double d = num.value();
+            return d == Math.rint(d) ? Long.toString((long) d) : Double.toString(d);
+        }
+        problems.add(new FieldProblem(n, column, describe(v, column + " is empty")));
+        return null;
+    }
+
+    private static String describe(RawValue v, String empty) {
+        if (v instanceof RawValue.Formula f) {
+            return "the cell holds a formula (" + f.expression() + "); paste values instead";
+        }
+        if (v instanceof RawValue.Other o) {
+            return "the cell holds " + o.description();
+        }
+        return empty;
+    }
+
+    private static Period period(RawValue v, UploadOptions.DateOrder order, int n, List<FieldProblem> problems) {
+        if (v instanceof RawValue.Date d) {
+            return new Period(Granularity.DAY, d.value());
+        }
+        if (!(v instanceof RawValue.Text t) || t.value().isBlank()) {
+            problems.add(new FieldProblem(n, "period", v instanceof RawValue.Number
+                    ? "the period is a plain number; write a date such as 2026-11-30 or a month such as 2026-11"
+                    : describe(v, "period is empty")));
+            return null;
+        }
+        String s = t.value().trim();
+        try {
+            Granularity g = Granularity.ofLabel(s);
+            return new Period(g, g.parse(s));
+        } catch (IllegalArgumentException notIso) {
+            Matcher m = DMY.matcher(s);
+            if (m.matches()) {
+                int a = Integer.parseInt(m.group(1));
+                int b = Integer.parseInt(m.group(2));
+                int y = Integer.parseInt(m.group(3));
+                try {
+                    LocalDate date = order == UploadOptions.DateOrder.MONTH_FIRST ? LocalDate.of(y, a, b)
+                            : LocalDate.of(y, b, a);
+                    return new Period(Granularity.DAY, date);
+                } catch (DateTimeException e) {
+                    problems.add(new FieldProblem(n, "period", "'" + s + "' is not a date when read as "
+                            + (order == UploadOptions.DateOrder.MONTH_FIRST ? "month/day/year" : "day/month/year")));
+                    return null;
+                }
+            }
+            Matcher my = MY.matcher(s);
+            if (my.matches()) {
+                int month = Integer.parseInt(my.group(1));
+                if (month >= 1 && month <= 12) {
+                    return new Period(Granularity.MONTH, LocalDate.of(Integer.parseInt(my.group(2)), month, 1));
+                }
+            }
+            problems.add(new FieldProblem(n, "period", "'" + s + "' is not a period; write 2026-11-30, 30/11/2026, "
+                    + "2026-11 (a month) or 2026-W48 (a week)"));
+            return null;
+        }
+    }
+
+    private static BigDecimal amount(RawValue v, UploadOptions.NumberStyle style, int n, List<FieldProblem> problems) {
+        if (v instanceof RawValue.Number num) {
+            if (!Double.isFinite(num.value())) {
+                problems.add(new FieldProblem(n, "amount", "the amount is not a finite number"));
+                return null;
+            }
+            return BigDecimal.valueOf(num.value());
+        }
+        if (!(v instanceof RawValue.Text t) || t.value().isBlank()) {
+            problems.add(new FieldProblem(n, "amount", describe(v, "amount is empty")));
+            return null;
+        }
+        BigDecimal parsed = parseAmount(t.value(), style);
+        if (parsed == null) {
+            problems.add(new FieldProblem(n, "amount", "'" + t.value().trim() + "' is not an amount"));
+        }
+        return parsed;
+    }
+
+    /** Parses an amount written as text in the given style; null when it is not one. */
+    static BigDecimal parseAmount(String text, UploadOptions.NumberStyle style) {
+        String s = text.trim();
+        if (s.matches("(?i)[+-]?(nan|inf(inity)?)")) {
+            return null;
+        }
+        boolean negative = s.startsWith("(") && s.endsWith(")");
+        s = NOISE.matcher(s).replaceAll("");
+        s = s.replace("(", "").replace(")", "");
+        if (s.startsWith("-")) {
+            negative = !negative;
+            s = s.substring(1);
+        } else if (s.startsWith("+")) {
+            s = s.substring(1);
+        }
+        if (s.isEmpty() || s.contains("-") || s.contains("+")) {
+            return null;
+        }
+        if (style == UploadOptions.NumberStyle.COMMA) {
+            s = s.replace(".", "").replace(',', '.');
+        } else {
+            s = s.replace(",", "");
+        }
+        if (!s.matches("\\d+(\\.\\d+)?|\\.\\d+")) {
+            return null;
+        }
+        BigDecimal value = new BigDecimal(s);
+        return negative ? value.negate() : value;
+    }
+
+    /** DAY_FIRST or MONTH_FIRST if the text dates tell; null if they cannot. */
+    private static UploadOptions.DateOrder detectOrder(RawTable table, String periodColumn) {
+        boolean dayFirstEvidence = false;
+        boolean monthFirstEvidence = false;
+        boolean ambiguous = false;
+        for (RawTable.Row row : table.rows()) {
+            if (row.cells().get(periodColumn) instanceof RawValue.Text t) {
+                Matcher m = DMY.matcher(t.value().trim());
+                if (m.matches()) {
+                    int a = Integer.parseInt(m.group(1));
+                    int b = Integer.parseInt(m.group(2));
+                    dayFirstEvidence |= a > 12;
+                    monthFirstEvidence |= b > 12;
+                    ambiguous |= a <= 12 && b <= 12 && a != b;
+                }
+            }
+        }
+        if (dayFirstEvidence && !monthFirstEvidence) {
+            return UploadOptions.DateOrder.DAY_FIRST;
+        }
+        if (monthFirstEvidence && !dayFirstEvidence) {
+            return UploadOptions.DateOrder.MONTH_FIRST;
+        }
+        return ambiguous || (dayFirstEvidence && monthFirstEvidence) ? null : UploadOptions.DateOrder.DAY_FIRST;
+    }
+
+    /** POINT or COMMA if the text amounts tell; null if they contradict each other. */
+    private static UploadOptions.NumberStyle detectStyle(RawTable table) {
+        boolean comma = false;
+        boolean point = false;
+        for (RawTable.Row row : table.rows()) {
+            if (row.cells().get("amount") instanceof RawValue.Text t) {
+                String s = NOISE.matcher(t.value().trim()).replaceAll("").replace("(", "").replace(")", "");
+                int lastComma = s.lastIndexOf(',');
+                int lastPoint = s.lastIndexOf('.');
+                if (lastComma >= 0 && lastPoint >= 0) {
+                    if (lastComma > lastPoint) {
+                        comma = true;
+                    } else {
+                        point = true;
+                    }
+                } else if (s.matches(".*,\\d{1,2}")) {
+                    comma = true;
+                } else if (s.matches(".*\\.\\d{1,2}")) {
+                    point = true;
+                }
+            }
+        }
+        if (comma && point) {
+            return null;
+        }
+        return comma ? UploadOptions.NumberStyle.COMMA : UploadOptions.NumberStyle.POINT;
+    }
+
+    private static void mixedGranularities(List<FigureInput> figures, List<FieldProblem> problems) {
+        Map<Granularity, Integer> counts = new EnumMap<>(Granularity.class);
+        for (FigureInput f : figures) {
+            counts.merge(f.granularity(), 1, Integer::sum);
+        }
+        if (counts.size() <= 1) {
+            return;
+        }
+        Granularity main = counts.entrySet().stream().max(Map.Entry.comparingByValue()).orElseThrow().getKey();
+        List<FigureInput> keep = new ArrayList<>();
+        for (FigureInput f : figures) {
+            if (f.granularity() == main) {
+                keep.add(f);
+            } else {
+                problems.add(new FieldProblem(f.index(), "period", "this row gives a "
+                        + f.granularity().name().toLowerCase(java.util.Locale.ROOT) + " but most rows give a "
+                        + main.name().toLowerCase(java.util.Locale.ROOT) + "; one file holds one kind of period"));
+            }
+        }
+        figures.clear();
+        figures.addAll(keep);
+    }
+}

@@ -1,0 +1,201 @@
+package dev.tallyvane.intake.upload;
+
+import dev.tallyvane.account.AuditLog;
+import dev.tallyvane.intake.FigureInput;
+import dev.tallyvane.intake.IntakeResult;
+import dev.tallyvane.intake.IntakeService;
+import dev.tallyvane.intake.Submitter;
+import dev.tallyvane.location.Location;
+import dev.tallyvane.location.LocationDetails;
+import dev.tallyvane.location.LocationService;
+import dev.tallyvane.system.InvalidRequest;
+import dev.tallyvane.system.InvalidRequest.FieldProblem;
+import dev.tallyvane.system.TallyvaneProperties;
+import java.time.Clock;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.Set;
+import java.util.TreeSet;
+import java.util.stream.Collectors;
+import org.springframework.stereotype.Service;
+import org.springframework.transaction.annotation.Transactional;
+
+/**
+ * The bookkeeper's upload: the file is stored as sent, shown as a preview (new, changed and
+ * unchanged figures per location, every rejected row), and committed in one transaction, creating
+ * the unknown locations only when the user confirmed it.
+ */
+@Service
+public class UploadService {
+
+    private final UploadStore store;
+    private final IntakeService intake;
+    private final LocationService locations;
+    private final AuditLog audit;
+    private final TallyvaneProperties properties;
+    private final Clock clock;
+
+    UploadService(UploadStore store, IntakeService intake, LocationService locations, AuditLog audit,
+            TallyvaneProperties properties, Clock clock) {
+        this.store = store;
+        this.intake = intake;
+        this.locations = locations;
+        this.audit = audit;
+        this.properties = properties;
+        this.clock = clock;
+    }
+
+    /**
+     * What the preview shows.
+     *
+     * @param problems         every rejected row with its field and reason (row numbers as in the file)
+     * @param unknownLocations codes in the file that no location has
+     * @param outcome          new / changed / unchanged per location, for the rows that are fine
+     * @param needsDateOrder   the user must say whether dates are day/month or month/day
+     * @param needsNumberStyle the user must say which mark separates decimals
+     */
+    public record Preview(Upload upload, int rowCount, List<FieldProblem> problems, Set<String> unknownLocations,
+            IntakeResult outcome, boolean needsDateOrder, boolean needsNumberStyle, UploadOptions usedOptions) {
+
+        public boolean canCommit() {
+            return upload.staged() && problems.isEmpty() && !needsDateOrder && !needsNumberStyle
+                    && outcome.received() > 0;
+        }
+
+        public long rejectedRows() {
+            return problems.stream().map(FieldProblem::index).distinct().count();
+        }
+    }
+
+    /**
+     * Stores a file for preview.
+     *
+     * @throws UploadRejected when the file as a whole cannot be read (nothing is stored then)
+     */
+    @Transactional
+    public long stage(String fileName, String contentType, byte[] content, String user) {
+        String name = fileName == null || fileName.isBlank() ? "upload" : fileName.strip();
+        if (name.length() > 255) {
+            name = name.substring(0, 255);
+        }
+        if (content.length == 0) {
+            throw new UploadRejected("The file is empty.");
+        }
+        RawTable table = read(name, content);
+        UploadParser.Parsed parsed = UploadParser.parse(table, UploadOptions.AUTO);
+        long id = store.insert(name, contentType, content, user, clock.instant(), UploadOptions.AUTO);
+        store.updateCounts(id, parsed.rowCount(), (int) parsed.problems().stream().map(FieldProblem::index).distinct()
+                .count(), 0, 0, 0);
+        audit.record(user, "UPLOAD_STAGED", "#" + id + " " + name + ", " + parsed.rowCount() + " rows");
+        return id;
+    }
+
+    @Transactional(readOnly = true)
+    public Upload upload(long id) {
+        return store.find(id).orElseThrow(() -> new UnknownUpload(id));
+    }
+
+    @Transactional(readOnly = true)
+    public List<Upload> history(int limit) {
+        return store.latest(limit);
+    }
+
+    @Transactional(readOnly = true)
+    public Preview preview(long id) {
+        Upload upload = upload(id);
+        UploadParser.Parsed parsed = UploadParser.parse(read(upload.fileName(), store.content(id)), upload.options());
+        Set<String> unknown = unknownCodes(parsed.figures());
+        List<FieldProblem> problems = new ArrayList<>(parsed.problems());
+        problems.addAll(intake.check(parsed.figures(), unknown, "row"));
+        problems.sort(java.util.Comparator.comparing(FieldProblem::index));
+        List<FigureInput> clean = withoutRows(parsed.figures(), problems);
+        return new Preview(upload, parsed.rowCount(), problems, unknown, intake.preview(clean), parsed.needsDateOrder(),
+                parsed.needsNumberStyle(), parsed.usedOptions());
+    }
+
+    @Transactional
+    public void changeOptions(long id, UploadOptions options) {
+        Upload upload = upload(id);
+        if (!upload.staged()) {
+            throw new UploadAlreadyFinished(id, upload.status());
+        }
+        store.updateOptions(id, options);
+    }
+
+    /**
+     * Commits the upload: all figures or none.
+     *
+     * @param createLocations the user confirmed that the unknown locations are to be created
+     * @throws InvalidRequest when rows are rejected, the reading is ambiguous or unknown locations were not confirmed
+     */
+    @Transactional
+    public IntakeResult commit(long id, boolean createLocations, String user) {
+        Upload upload = upload(id);
+        if (!store.finish(id, Upload.Status.COMMITTED, clock.instant(), user)) {
+            throw new UploadAlreadyFinished(id, upload(id).status());
+        }
+        UploadParser.Parsed parsed = UploadParser.parse(read(upload.fileName(), store.content(id)), upload.options());
+        if (parsed.needsDateOrder() || parsed.needsNumberStyle()) {
+            throw new InvalidRequest("options", "say how dates and amounts are written before committing");
+        }
+        if (!parsed.problems().isEmpty()) {
+            throw new InvalidRequest("Some rows are rejected; fix the file and upload it again.", parsed.problems());
+        }
+        Set<String> unknown = unknownCodes(parsed.figures());
+        if (!unknown.isEmpty()) {
+            if (!createLocations) {
+                throw new InvalidRequest("location", "the file names locations that do not exist yet ("
+                        + String.join(", ", unknown) + "); tick \"create them\" to add them");
+            }
+            createLike(unknown, user);
+        }
+        IntakeResult result = intake.record(parsed.figures(), Submitter.upload(user, id), "row");
+        store.updateCounts(id, parsed.rowCount(), 0, result.created(), result.changed(), result.unchanged());
+        audit.record(user, "UPLOAD_COMMITTED", "#" + id + " " + upload.fileName() + ": " + result.created() + " new, "
+                + result.changed() + " changed, " + result.unchanged() + " unchanged");
+        return result;
+    }
+
+    @Transactional
+    public void discard(long id, String user) {
+        Upload upload = upload(id);
+        if (!store.finish(id, Upload.Status.DISCARDED, clock.instant(), user)) {
+            throw new UploadAlreadyFinished(id, upload.status());
+        }
+        audit.record(user, "UPLOAD_DISCARDED", "#" + id + " " + upload.fileName());
+    }
+
+    private void createLike(Set<String> codes, String user) {
+        List<Location> existing = locations.all();
+        String zone = existing.isEmpty() ? properties.defaults().timeZone() : existing.get(0).getTimeZone();
+        String currency = existing.isEmpty() ? properties.defaults().currency() : existing.get(0).getCurrency();
+        for (String code : codes) {
+            locations.create(new LocationDetails(code, code, zone, currency, null, null));
+            audit.record(user, "LOCATION_CREATED", code + " (from an upload)");
+        }
+    }
+
+    private Set<String> unknownCodes(List<FigureInput> figures) {
+        Set<String> codes = figures.stream().map(FigureInput::locationCode).collect(Collectors.toCollection(TreeSet::new));
+        Set<String> known = locations.all().stream().map(Location::getCode).collect(Collectors.toSet());
+        codes.removeAll(known);
+        return codes;
+    }
+
+    private static List<FigureInput> withoutRows(List<FigureInput> figures, List<FieldProblem> problems) {
+        Set<Integer> bad = problems.stream().map(FieldProblem::index).collect(Collectors.toSet());
+        return figures.stream().filter(f -> !bad.contains(f.index())).toList();
+    }
+
+    private RawTable read(String fileName, byte[] content) {
+        int max = properties.intake().maxUploadRows();
+        boolean zip = content.length >= 4 && content[0] == 'P' && content[1] == 'K';
+        boolean ole = content.length >= 4 && (content[0] & 0xFF) == 0xD0 && (content[1] & 0xFF) == 0xCF;
+        String lower = fileName.toLowerCase(Locale.ROOT);
+        if (zip || ole || lower.endsWith(".xlsx") || lower.endsWith(".xls")) {
+            return XlsxTableReader.read(content, max);
+        }
+        return CsvTableReader.read(content, max);
+    }
+}

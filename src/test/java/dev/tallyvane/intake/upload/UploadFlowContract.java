@@ -1,0 +1,186 @@
+package dev.tallyvane.intake.upload;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.hamcrest.Matchers.containsString;
+import static org.hamcrest.Matchers.not;
+import static org.springframework.security.test.web.servlet.request.SecurityMockMvcRequestPostProcessors.csrf;
+import static org.springframework.security.test.web.servlet.request.SecurityMockMvcRequestPostProcessors.user;
+import static org.springframework.test.web.servlet.request.MockMvcRequestBuilders.get;
+import static org.springframework.test.web.servlet.request.MockMvcRequestBuilders.multipart;
+import static org.springframework.test.web.servlet.request.MockMvcRequestBuilders.post;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.content;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.header;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.status;
+
+import dev.tallyvane.account.Role;
+import dev.tallyvane.account.UserService;
+import dev.tallyvane.app.TallyvaneApplication;
+import dev.tallyvane.location.LocationDetails;
+import dev.tallyvane.location.LocationService;
+import dev.tallyvane.support.TestClockConfiguration;
+import dev.tallyvane.support.Users;
+import dev.tallyvane.support.Workbooks;
+import java.nio.charset.StandardCharsets;
+import java.time.LocalDate;
+import java.util.UUID;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Test;
+import org.springframework.beans.factory.annotation.Autowired;
+import org.springframework.boot.test.context.SpringBootTest;
+import org.springframework.boot.webmvc.test.autoconfigure.AutoConfigureMockMvc;
+import org.springframework.context.annotation.Import;
+import org.springframework.jdbc.core.JdbcTemplate;
+import org.springframework.mock.web.MockMultipartFile;
+import org.springframework.test.web.servlet.MockMvc;
+import org.springframework.test.web.servlet.request.RequestPostProcessor;
+
+/** The bookkeeper's upload, end to end through the pages: preview, commit, history, bad files. */
+@SpringBootTest(classes = TallyvaneApplication.class)
+@AutoConfigureMockMvc
+@Import(TestClockConfiguration.class)
+abstract class UploadFlowContract {
+
+    @Autowired
+    MockMvc mvc;
+    @Autowired
+    LocationService locations;
+    @Autowired
+    UserService users;
+    @Autowired
+    JdbcTemplate jdbc;
+
+    String code;
+    RequestPostProcessor bookkeeper = user("bea").roles("BOOKKEEPER");
+
+    @BeforeEach
+    void setUp() {
+        Users.ensure(users, "olive", Role.OWNER);
+        Users.ensure(users, "bea", Role.BOOKKEEPER);
+        code = "U" + UUID.randomUUID().toString().substring(0, 8).toUpperCase();
+        locations.create(new LocationDetails(code, "Station Kiosk", "Europe/Berlin", "EUR", null, null));
+    }
+
+    long rows(String location) {
+        return jdbc.queryForObject("select count(*) from figure_revision r join location l on l.id = r.location_id "
+                + "where l.code = ?", Long.class, location);
+    }
+
+    long upload(String name, byte[] content) throws Exception {
+        String location = mvc.perform(multipart("/uploads").file(new MockMultipartFile("file", name, "text/csv", content))
+                .with(bookkeeper).with(csrf())).andExpect(status().isFound()).andReturn().getResponse()
+                .getRedirectedUrl();
+        assertThat(location).startsWith("/uploads/");
+        return Long.parseLong(location.substring("/uploads/".length()));
+    }
+
+    @Test
+    void csvUploadPreviewCommitAndHistoryWithANewLocationConfirmed() throws Exception {
+        String fresh = code + "X";
+        String csv = "location,period,amount\n" + code + ",2026-11-01,100.00\n" + code + ",2026-11-02,\"1,200.50\"\n"
+                + fresh + ",2026-11-01,50\n";
+        long id = upload("november.csv", csv.getBytes(StandardCharsets.UTF_8));
+        mvc.perform(get("/uploads/{id}", id).with(bookkeeper)).andExpect(status().isOk())
+                .andExpect(content().string(containsString("november.csv")))
+                .andExpect(content().string(containsString("new location")))
+                .andExpect(content().string(containsString("Create the new locations")));
+        // committing without confirming the new location is refused, nothing is written
+        mvc.perform(post("/uploads/{id}/commit", id).with(bookkeeper).with(csrf())).andExpect(status().isOk())
+                .andExpect(content().string(containsString("do not exist yet")));
+        assertThat(rows(code)).isZero();
+        mvc.perform(post("/uploads/{id}/commit", id).param("createLocations", "true").with(bookkeeper).with(csrf()))
+                .andExpect(status().isFound());
+        assertThat(rows(code)).isEqualTo(2);
+        assertThat(rows(fresh)).isEqualTo(1);
+        assertThat(locations.byCode(fresh).getName()).isEqualTo(fresh);
+        mvc.perform(get("/uploads").with(bookkeeper)).andExpect(content().string(containsString("november.csv")))
+                .andExpect(content().string(containsString("committed")));
+        // committing twice is refused
+        mvc.perform(post("/uploads/{id}/commit", id).param("createLocations", "true").with(bookkeeper).with(csrf()))
+                .andExpect(status().isConflict());
+        assertThat(rows(code)).isEqualTo(2);
+
+        // the same file with one correction: preview shows 1 changed (old → new), 1 unchanged
+        String corrected = "location,period,amount\n" + code + ",2026-11-01,100\n" + code + ",2026-11-02,1250\n";
+        long second = upload("november-fixed.csv", corrected.getBytes(StandardCharsets.UTF_8));
+        mvc.perform(get("/uploads/{id}", second).with(bookkeeper))
+                .andExpect(content().string(containsString("1200.5")))
+                .andExpect(content().string(containsString("1250")));
+        mvc.perform(post("/uploads/{id}/commit", second).with(bookkeeper).with(csrf())).andExpect(status().isFound());
+        assertThat(rows(code)).isEqualTo(3);
+    }
+
+    @Test
+    void xlsxWithDateCellsIsReadAndCommitted() throws Exception {
+        byte[] xlsx = Workbooks.figures(new Workbooks.Line(code, LocalDate.of(2026, 11, 3), 321.5),
+                new Workbooks.Line(code, LocalDate.of(2026, 11, 4), 400));
+        long id = upload("week.xlsx", xlsx);
+        mvc.perform(get("/uploads/{id}", id).with(bookkeeper)).andExpect(content().string(not(containsString("Rejected rows"))));
+        mvc.perform(post("/uploads/{id}/commit", id).with(bookkeeper).with(csrf())).andExpect(status().isFound());
+        assertThat(rows(code)).isEqualTo(2);
+    }
+
+    @Test
+    void aFileWithBadRowsShowsEveryRowAndCannotBeCommitted() throws Exception {
+        String csv = "location,period,amount\n" + code + ",2026-11-01,100\nNOWHERE1,2026-11-02,x\n" + code
+                + ",2026-11-01,100\n" + code + ",2031-01-01,5\n" + code + ",2026-11-05,1.999\n";
+        long id = upload("bad.csv", csv.getBytes(StandardCharsets.UTF_8));
+        mvc.perform(get("/uploads/{id}", id).with(bookkeeper))
+                .andExpect(content().string(containsString("Rejected rows")))
+                .andExpect(content().string(containsString("&#39;x&#39; is not an amount")))
+                .andExpect(content().string(containsString("duplicate: row 2 already gives")))
+                .andExpect(content().string(containsString("is in the future")))
+                .andExpect(content().string(containsString("has more than 2 decimals")));
+        mvc.perform(post("/uploads/{id}/commit", id).param("createLocations", "true").with(bookkeeper).with(csrf()))
+                .andExpect(content().string(containsString("Some rows are rejected")));
+        assertThat(rows(code)).isZero();
+    }
+
+    @Test
+    void workbooksWithFormulasSeveralSheetsOrAPasswordAreRefusedClearly() throws Exception {
+        byte[] formula = Workbooks.withFormula("SUM(1,2)", new Workbooks.Line(code, LocalDate.of(2026, 11, 3), 1));
+        long id = upload("formula.xlsx", formula);
+        mvc.perform(get("/uploads/{id}", id).with(bookkeeper))
+                .andExpect(content().string(containsString("the cell holds a formula (=SUM(1,2)); paste values instead")));
+        byte[] good = Workbooks.figures(new Workbooks.Line(code, LocalDate.of(2026, 11, 3), 1));
+        refused("sheets.xlsx", Workbooks.twoSheets(new Workbooks.Line(code, LocalDate.of(2026, 11, 3), 1)),
+                "The workbook has 2 sheets");
+        refused("locked.xlsx", Workbooks.encrypted(good, "secret"), "password-protected");
+        refused("bomb.xlsx", Workbooks.bomb(good, 40), "refused for safety");
+        refused("empty.csv", new byte[0], "The file is empty.");
+        refused("columns.csv", "shop,day,sales\nA,2026-11-01,1\n".getBytes(StandardCharsets.UTF_8),
+                "The columns do not fit");
+        assertThat(rows(code)).isZero();
+    }
+
+    private void refused(String name, byte[] content, String message) throws Exception {
+        mvc.perform(multipart("/uploads").file(new MockMultipartFile("file", name, "application/octet-stream", content))
+                        .with(bookkeeper).with(csrf()))
+                .andExpect(status().isOk()).andExpect(content().string(containsString("was not accepted")))
+                .andExpect(content().string(containsString(message)));
+    }
+
+    @Test
+    void ambiguousDatesAreAskedAboutThenReadAsChosen() throws Exception {
+        String csv = "location,period,amount\n" + code + ",03/04/2026,10\n" + code + ",05/06/2026,11\n";
+        long id = upload("ambiguous.csv", csv.getBytes(StandardCharsets.UTF_8));
+        mvc.perform(get("/uploads/{id}", id).with(bookkeeper))
+                .andExpect(content().string(containsString("could be\n            3 April or 4 March")));
+        mvc.perform(post("/uploads/{id}/options", id).param("dateOrder", "MONTH_FIRST").param("numberStyle", "AUTO")
+                .with(bookkeeper).with(csrf())).andExpect(status().isFound());
+        mvc.perform(post("/uploads/{id}/commit", id).with(bookkeeper).with(csrf())).andExpect(status().isFound());
+        assertThat(jdbc.queryForObject("select min(period_start) from figure_revision r join location l on "
+                + "l.id = r.location_id where l.code = ?", LocalDate.class, code)).isEqualTo(LocalDate.of(2026, 3, 4));
+    }
+
+    @Test
+    void templatesDownload() throws Exception {
+        mvc.perform(get("/uploads/template.csv").with(bookkeeper)).andExpect(status().isOk())
+                .andExpect(header().string("Content-Disposition", containsString("tallyvane-figures-template.csv")))
+                .andExpect(content().string(containsString("location,period,amount,measure")));
+        byte[] xlsx = mvc.perform(get("/uploads/template.xlsx").with(bookkeeper)).andExpect(status().isOk())
+                .andReturn().getResponse().getContentAsByteArray();
+        // the template itself is a valid upload
+        RawTable table = XlsxTableReader.read(xlsx, 10);
+        assertThat(UploadParser.parse(table, UploadOptions.AUTO).problems()).isEmpty();
+    }
+}
