@@ -9,6 +9,13 @@
         var bar = document.getElementById('upload-progress');
         var status = document.getElementById('upload-status');
         var button = form.querySelector('button[type=submit]');
+        var input = document.getElementById('file');
+        var limit = Number(form.getAttribute('data-max-bytes') || 0);
+        if (limit && input.files.length && input.files[0].size > limit) {
+            status.textContent = 'The file is larger than ' + Math.round(limit / 1048576)
+                + ' MB. Split it into smaller files (for example one per month).';
+            return;
+        }
         var xhr = new XMLHttpRequest();
         bar.hidden = false;
         button.disabled = true;
@@ -35,6 +42,11 @@
             button.disabled = false;
         });
         xhr.open('POST', form.action);
+        // the CSRF token goes in a header too, so an oversized body is refused with a message, not a 403
+        var token = form.querySelector('input[name=_csrf]');
+        if (token) {
+            xhr.setRequestHeader('X-CSRF-TOKEN', token.value);
+        }
         xhr.send(new FormData(form));
     });
 })();

@@ -9,6 +9,8 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.regex.Pattern;
+import java.time.Instant;
+import org.springframework.security.authentication.DisabledException;
 import org.springframework.security.authentication.LockedException;
 import org.springframework.security.core.authority.SimpleGrantedAuthority;
 import org.springframework.security.core.userdetails.User;
@@ -151,13 +153,27 @@ public class UserService implements UserDetailsService {
     public UserDetails loadUserByUsername(String username) {
         AppUser u = users.findByUsernameIgnoreCase(username == null ? "" : username.trim())
                 .orElseThrow(() -> new UsernameNotFoundException("unknown user"));
-        if (u.getLockedUntil() != null && u.getLockedUntil().isAfter(clock.instant())) {
+        boolean locked = u.getLockedUntil() != null && u.getLockedUntil().isAfter(clock.instant());
+        return User.withUsername(u.getUsername()).password(u.getPasswordHash()).disabled(!u.isEnabled())
+                .accountLocked(locked).authorities(new SimpleGrantedAuthority(u.getRole().authority())).build();
+    }
+
+    /**
+     * The check before the password is compared: a locked account is refused with the time it
+     * unlocks, a disabled one plainly.
+     */
+    @Transactional(readOnly = true)
+    public void checkCanSignIn(UserDetails user) {
+        if (!user.isAccountNonLocked()) {
+            Instant until = users.findByUsernameIgnoreCase(user.getUsername()).map(AppUser::getLockedUntil)
+                    .orElse(clock.instant());
             throw new LockedException("Too many failed sign-ins: this account is locked until "
                     + java.time.format.DateTimeFormatter.ofPattern("HH:mm 'UTC'", Locale.ROOT)
-                            .format(u.getLockedUntil().atZone(java.time.ZoneOffset.UTC)) + ".");
+                            .format(until.atZone(java.time.ZoneOffset.UTC)) + ".");
         }
-        return User.withUsername(u.getUsername()).password(u.getPasswordHash()).disabled(!u.isEnabled())
-                .authorities(new SimpleGrantedAuthority(u.getRole().authority())).build();
+        if (!user.isEnabled()) {
+            throw new DisabledException("This account is disabled; ask the owner.");
+        }
     }
 
     @Transactional

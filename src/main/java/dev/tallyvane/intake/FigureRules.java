@@ -47,6 +47,7 @@ public class FigureRules {
         Map<String, Integer> seen = new HashMap<>();
         LocalDate earliest = properties.intake().earliestDate();
         int tolerance = properties.intake().futureToleranceDays();
+        Map<String, LocalDate> todayByZone = new HashMap<>();
         for (FigureInput f : figures) {
             Location location = locations.get(f.locationCode());
             int i = f.index();
@@ -67,7 +68,8 @@ public class FigureRules {
                 problems.add(new FieldProblem(i, "measure", "'" + f.measure() + "' is not a measure name: use lower-case "
                         + "letters, digits and '_', e.g. net_sales"));
             }
-            LocalDate today = LocalDate.now(location == null ? clock : clock.withZone(location.zone()));
+            LocalDate today = todayByZone.computeIfAbsent(location == null ? "" : location.getTimeZone(),
+                    z -> LocalDate.now(z.isEmpty() ? clock : clock.withZone(java.time.ZoneId.of(z))));
             if (f.periodStart().isBefore(earliest)) {
                 problems.add(new FieldProblem(i, "period", "period " + f.granularity().label(f.periodStart())
                         + " is before " + earliest));

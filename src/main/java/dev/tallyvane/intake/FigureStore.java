@@ -1,7 +1,11 @@
 package dev.tallyvane.intake;
 
 import dev.tallyvane.engine.series.Granularity;
+import java.io.IOException;
+import java.io.StringReader;
 import java.math.BigDecimal;
+import java.sql.Connection;
+import java.sql.SQLException;
 import java.sql.Timestamp;
 import java.sql.Types;
 import java.time.Instant;
@@ -11,7 +15,11 @@ import java.util.Collection;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
+import org.postgresql.PGConnection;
+import org.postgresql.copy.CopyManager;
+import org.springframework.dao.DataAccessResourceFailureException;
 import org.springframework.jdbc.core.JdbcTemplate;
+import org.springframework.jdbc.datasource.DataSourceUtils;
 import org.springframework.jdbc.core.namedparam.MapSqlParameterSource;
 import org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate;
 import org.springframework.stereotype.Repository;
@@ -82,8 +90,14 @@ class FigureStore {
         }
     }
 
-    /** Inserts new current values. */
+    /**
+     * Inserts new current values: with PostgreSQL's COPY when the connection is PostgreSQL's and the
+     * batch is large, otherwise as JDBC batches (H2, small batches).
+     */
     void insert(List<NewRevision> revisions, Instant at, Submitter submitter) {
+        if (revisions.size() >= COPY_THRESHOLD && copy(revisions, at, submitter)) {
+            return;
+        }
         Timestamp ts = Timestamp.from(at);
         for (int i = 0; i < revisions.size(); i += BATCH) {
             List<NewRevision> chunk = revisions.subList(i, Math.min(revisions.size(), i + BATCH));
@@ -105,6 +119,38 @@ class FigureStore {
                         }
                     });
         }
+    }
+
+    private static final int COPY_THRESHOLD = 1_000;
+
+    /** COPY … FROM STDIN (CSV) inside the current transaction; false when the connection is not PostgreSQL. */
+    private boolean copy(List<NewRevision> revisions, Instant at, Submitter submitter) {
+        Connection connection = DataSourceUtils.getConnection(jdbc.getDataSource());
+        try {
+            if (!connection.isWrapperFor(PGConnection.class)) {
+                return false;
+            }
+            CopyManager copy = connection.unwrap(PGConnection.class).getCopyAPI();
+            String tail = "," + at + "," + submitter.source().name() + "," + csv(submitter.actor()) + ","
+                    + (submitter.uploadId() == null ? "" : submitter.uploadId()) + "\n";
+            StringBuilder sb = new StringBuilder(revisions.size() * 80);
+            for (NewRevision r : revisions) {
+                sb.append(r.key().locationId()).append(',').append(csv(r.key().measure())).append(',')
+                        .append(r.key().granularity().name()).append(',').append(r.key().periodStart()).append(',')
+                        .append(r.amount().toPlainString()).append(tail);
+            }
+            copy.copyIn("copy figure_revision (location_id, measure, granularity, period_start, amount, recorded_at, "
+                    + "source, actor, upload_id) from stdin with (format csv)", new StringReader(sb.toString()));
+            return true;
+        } catch (SQLException | IOException e) {
+            throw new DataAccessResourceFailureException("COPY into figure_revision failed: " + e.getMessage(), e);
+        } finally {
+            DataSourceUtils.releaseConnection(connection, jdbc.getDataSource());
+        }
+    }
+
+    private static String csv(String text) {
+        return "\"" + text.replace("\"", "\"\"") + "\"";
     }
 
     /** A stored value read back: period, granularity, amount. */

@@ -30,14 +30,19 @@ import org.springframework.web.servlet.mvc.support.RedirectAttributes;
 class UploadsController {
 
     private final UploadService uploads;
+    private final long maxBytes;
 
-    UploadsController(UploadService uploads) {
+    UploadsController(UploadService uploads,
+            @org.springframework.beans.factory.annotation.Value("${spring.servlet.multipart.max-file-size:20MB}")
+            org.springframework.util.unit.DataSize maxFileSize) {
         this.uploads = uploads;
+        this.maxBytes = maxFileSize.toBytes();
     }
 
     @GetMapping("/uploads")
     String page(Model model) {
         model.addAttribute("history", uploads.history(50));
+        model.addAttribute("maxBytes", maxBytes);
         return "intake/uploads";
     }
 
