@@ -25,6 +25,7 @@ import org.springframework.web.servlet.resource.NoResourceFoundException;
  * the right status, and never lets an unexpected one out as a stack trace.
  */
 @RestControllerAdvice(annotations = org.springframework.web.bind.annotation.RestController.class)
+@org.springframework.core.annotation.Order(org.springframework.core.Ordered.HIGHEST_PRECEDENCE)
 public class ProblemResponses {
 
     private static final Logger log = LoggerFactory.getLogger(ProblemResponses.class);

@@ -1,8 +1,6 @@
 package dev.tallyvane.intake.web;
 
 import dev.tallyvane.intake.IntakeResult;
-import dev.tallyvane.intake.upload.UnknownUpload;
-import dev.tallyvane.intake.upload.UploadAlreadyFinished;
 import dev.tallyvane.intake.upload.UploadOptions;
 import dev.tallyvane.intake.upload.UploadRejected;
 import dev.tallyvane.intake.upload.UploadService;
@@ -11,17 +9,14 @@ import java.io.IOException;
 import java.security.Principal;
 import org.springframework.http.ContentDisposition;
 import org.springframework.http.HttpHeaders;
-import org.springframework.http.HttpStatus;
 import org.springframework.http.MediaType;
 import org.springframework.http.ResponseEntity;
 import org.springframework.stereotype.Controller;
 import org.springframework.ui.Model;
-import org.springframework.web.bind.annotation.ExceptionHandler;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
 import org.springframework.web.bind.annotation.RequestParam;
-import org.springframework.web.bind.annotation.ResponseStatus;
 import org.springframework.web.multipart.MultipartFile;
 import org.springframework.web.servlet.mvc.support.RedirectAttributes;
 
@@ -106,19 +101,5 @@ class UploadsController {
         return ResponseEntity.ok().contentType(MediaType.parseMediaType(type))
                 .header(HttpHeaders.CONTENT_DISPOSITION, ContentDisposition.attachment().filename(name).build().toString())
                 .body(body);
-    }
-
-    @ExceptionHandler(UnknownUpload.class)
-    @ResponseStatus(HttpStatus.NOT_FOUND)
-    String unknown(UnknownUpload e, Model model) {
-        model.addAttribute("message", e.getMessage());
-        return "error/not-found";
-    }
-
-    @ExceptionHandler(UploadAlreadyFinished.class)
-    @ResponseStatus(HttpStatus.CONFLICT)
-    String finished(UploadAlreadyFinished e, Model model) {
-        model.addAttribute("error", e.getMessage());
-        return page(model);
     }
 }

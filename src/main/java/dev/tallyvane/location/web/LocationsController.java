@@ -4,19 +4,15 @@ import dev.tallyvane.intake.FigureFacts;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationDetails;
 import dev.tallyvane.location.LocationService;
-import dev.tallyvane.location.UnknownLocation;
 import dev.tallyvane.location.LocationCodeTaken;
 import dev.tallyvane.system.InvalidRequest;
 import java.time.LocalDate;
 import java.util.List;
-import org.springframework.http.HttpStatus;
 import org.springframework.stereotype.Controller;
 import org.springframework.ui.Model;
-import org.springframework.web.bind.annotation.ExceptionHandler;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
-import org.springframework.web.bind.annotation.ResponseStatus;
 
 /** The locations list (the home page), adding a location and changing one. */
 @Controller
@@ -88,12 +84,5 @@ class LocationsController {
             model.addAttribute("problems", e.problems());
             return "locations/detail";
         }
-    }
-
-    @ExceptionHandler(UnknownLocation.class)
-    @ResponseStatus(HttpStatus.NOT_FOUND)
-    String unknown(UnknownLocation e, Model model) {
-        model.addAttribute("message", e.getMessage());
-        return "error/not-found";
     }
 }
