@@ -71,6 +71,16 @@ class RolesAndPagesIntegrationTests {
     }
 
     @Test
+    void theOpenApiDocumentDescribesTheIntakeApi() throws Exception {
+        mvc.perform(get("/v3/api-docs").with(viewer)).andExpect(status().isOk())
+                .andExpect(content().string(containsString("\"title\":\"Tallyvane API\"")))
+                .andExpect(content().string(containsString("/api/v1/figures")))
+                .andExpect(content().string(containsString("/api/v1/locations/{code}/series")))
+                .andExpect(content().string(containsString("\"scheme\":\"bearer\"")))
+                .andExpect(content().string(org.hamcrest.Matchers.not(containsString("ModelAndView"))));
+    }
+
+    @Test
     void formsNeedTheCsrfToken() throws Exception {
         mvc.perform(post("/tokens").with(owner).param("name", "till")).andExpect(status().isForbidden());
         mvc.perform(post("/uploads").with(bookkeeper)).andExpect(status().isForbidden());
