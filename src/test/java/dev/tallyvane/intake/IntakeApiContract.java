@@ -231,6 +231,8 @@ abstract class IntakeApiContract {
                 .andExpect(status().isForbidden());
         mvc.perform(get("/api/v1/locations").header("Authorization", "Bearer " + scoped))
                 .andExpect(jsonPath("$.length()").value(1)).andExpect(jsonPath("$[0].code").value(code + "B"));
+        assertThat(tokens.all()).filteredOn(t -> t.getName().equals("till B"))
+                .allSatisfy(t -> assertThat(t.getLastUsedAt()).isEqualTo(clock.instant()));
         var revoked = tokens.create("old till", null, "test");
         tokens.revoke(revoked.token().getId(), "test");
         mvc.perform(get("/api/v1/locations").header("Authorization", "Bearer " + revoked.secret()))
