@@ -37,9 +37,9 @@ create table forecast_settings (
 -- Closed days and holidays of a location.
 create table calendar_day (
     location_id  bigint      not null references location (id),
-    day          date        not null,
+    on_date      date        not null,
     kind         varchar(8)  not null,
-    primary key (location_id, day)
+    primary key (location_id, on_date)
 );
 
 -- Per series: when its data last changed and when it was last fitted (staleness).

@@ -26,9 +26,22 @@ import org.springframework.transaction.annotation.Transactional;
 public class SeriesReader {
 
     private final FigureStore store;
+    private final java.time.Clock clock;
 
-    SeriesReader(FigureStore store) {
+    SeriesReader(FigureStore store, java.time.Clock clock) {
         this.store = store;
+        this.clock = clock;
+    }
+
+    /**
+     * The periods that are over: those whose last day is before today at the location. The period
+     * still running is left out, since its partial total would look like a fall in sales.
+     */
+    @Transactional(readOnly = true)
+    public List<Point> completed(Location location, String measure, Granularity granularity, Instant asOf) {
+        LocalDate today = LocalDate.now(clock.withZone(location.zone()));
+        return read(location, measure, granularity, asOf, null, null).points().stream()
+                .filter(p -> granularity.periodEnd(p.period()).isBefore(today)).toList();
     }
 
     /**

@@ -74,6 +74,24 @@ public final class PostgresDatabase {
         return target;
     }
 
+    /**
+     * A further, empty database on the same test server, for tests that must not share their data
+     * (and their job queue) with other test contexts: url, user, password.
+     */
+    public static String[] fresh() {
+        Target t = target();
+        String base = t.url().substring(0, t.url().lastIndexOf('/') + 1);
+        String admin = t.url().substring(0, t.url().indexOf('?') < 0 ? t.url().length() : t.url().indexOf('?'));
+        String database = "tallyvane_it_" + UUID.randomUUID().toString().replace("-", "").substring(0, 12);
+        try (Connection c = DriverManager.getConnection(admin, t.user(), t.password()); Statement s = c.createStatement()) {
+            s.execute("create database " + database);
+        } catch (SQLException e) {
+            throw new IllegalStateException("cannot create a test database: " + e.getMessage(), e);
+        }
+        Runtime.getRuntime().addShutdownHook(new Thread(() -> drop(admin, t.user(), t.password(), database)));
+        return new String[] {base + database + "?reWriteBatchedInserts=true", t.user(), t.password()};
+    }
+
     private static void drop(String url, String user, String password, String database) {
         try (Connection c = DriverManager.getConnection(url, user, password); Statement s = c.createStatement()) {
             s.execute("drop database if exists " + database + " with (force)");

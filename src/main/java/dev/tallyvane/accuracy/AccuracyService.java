@@ -1,0 +1,265 @@
+package dev.tallyvane.accuracy;
+
+import dev.tallyvane.accuracy.signal.DriftSignals;
+import dev.tallyvane.accuracy.signal.Reading;
+import dev.tallyvane.accuracy.signal.Signal;
+import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.intake.SeriesReader;
+import dev.tallyvane.location.Location;
+import java.sql.Timestamp;
+import java.time.Clock;
+import java.time.Instant;
+import java.time.LocalDate;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.TreeMap;
+import org.springframework.jdbc.core.JdbcTemplate;
+import org.springframework.stereotype.Service;
+import org.springframework.transaction.annotation.Transactional;
+
+/**
+ * Realized accuracy: scores every issued forecast point whose period is over against the actual,
+ * keeps each score (a corrected actual adds a new score and marks the old one not current), and
+ * watches the one-step-ahead errors for drift ({@link DriftSignals}), raising and clearing flags.
+ */
+@Service
+public class AccuracyService {
+
+    private final JdbcTemplate jdbc;
+    private final SeriesReader reader;
+    private final FlagStore flags;
+    private final Clock clock;
+
+    AccuracyService(JdbcTemplate jdbc, SeriesReader reader, FlagStore flags, Clock clock) {
+        this.jdbc = jdbc;
+        this.reader = reader;
+        this.flags = flags;
+        this.clock = clock;
+    }
+
+    private record PointKey(long issuedId, int step) {
+    }
+
+    /** Scores new actuals and re-evaluates the drift flags of a location's measure; returns the number of new scores. */
+    @Transactional
+    public int scoreAndWatch(Location location, String measure) {
+        int scored = 0;
+        for (String g : jdbc.queryForList("select distinct granularity from issued_forecast where location_id = ? and "
+                + "measure = ?", String.class, location.getId(), measure)) {
+            scored += score(location, measure, Granularity.valueOf(g));
+        }
+        watch(location, measure);
+        return scored;
+    }
+
+    private int score(Location location, String measure, Granularity granularity) {
+        Map<LocalDate, Double> actuals = new HashMap<>();
+        for (SeriesReader.Point p : reader.completed(location, measure, granularity, null)) {
+            actuals.put(p.period(), p.amount().doubleValue());
+        }
+        if (actuals.isEmpty()) {
+            return 0;
+        }
+        LocalDate last = actuals.keySet().stream().max(LocalDate::compareTo).orElseThrow();
+        Map<PointKey, Double> current = new HashMap<>();
+        Map<PointKey, Long> currentIds = new HashMap<>();
+        jdbc.query("select issued_id, step, actual, id from forecast_error where location_id = ? and measure = ? and "
+                + "granularity = ? and is_current = true", rs -> {
+                    PointKey k = new PointKey(rs.getLong(1), rs.getInt(2));
+                    current.put(k, rs.getDouble(3));
+                    currentIds.put(k, rs.getLong(4));
+                }, location.getId(), measure, granularity.name());
+        Instant now = clock.instant();
+        List<Object[]> inserts = new ArrayList<>();
+        List<Long> superseded = new ArrayList<>();
+        jdbc.query("select p.issued_id, p.step, p.period_start, p.forecast, p.lo80, p.hi80, p.lo95, p.hi95, p.benchmark, "
+                + "f.mase_scale from issued_forecast_point p join issued_forecast f on f.id = p.issued_id "
+                + "where f.location_id = ? and f.measure = ? and f.granularity = ? and p.closed = false and "
+                + "p.period_start <= ?", rs -> {
+                    LocalDate period = rs.getObject(3, LocalDate.class);
+                    Double actual = actuals.get(period);
+                    if (actual == null) {
+                        return;
+                    }
+                    PointKey key = new PointKey(rs.getLong(1), rs.getInt(2));
+                    Double before = current.get(key);
+                    if (before != null && before.doubleValue() == actual) {
+                        return;
+                    }
+                    if (before != null) {
+                        superseded.add(currentIds.get(key));
+                    }
+                    double forecast = rs.getDouble(4);
+                    inserts.add(new Object[] {key.issuedId(), location.getId(), measure, granularity.name(), key.step(),
+                            period, forecast, actual, rs.getObject(9), actual >= rs.getDouble(5) && actual <= rs.getDouble(6),
+                            actual >= rs.getDouble(7) && actual <= rs.getDouble(8), rs.getObject(10), Timestamp.from(now)});
+                }, location.getId(), measure, granularity.name(), last);
+        for (Long id : superseded) {
+            jdbc.update("update forecast_error set is_current = false where id = ?", id);
+        }
+        jdbc.batchUpdate("insert into forecast_error (issued_id, location_id, measure, granularity, step, period_start, "
+                + "forecast, actual, benchmark, in80, in95, mase_scale, scored_at, is_current) "
+                + "values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, true)", inserts);
+        return inserts.size();
+    }
+
+    /** One-step-ahead error of a period, from the newest forecast that covered it one step ahead. */
+    public record StepOne(LocalDate period, double actual, double forecast, double error, double sigma, double maseScale,
+            String granularity) {
+    }
+
+    @Transactional(readOnly = true)
+    public List<StepOne> stepOneErrors(long locationId, String measure) {
+        Map<LocalDate, StepOne> byPeriod = new TreeMap<>();
+        Map<LocalDate, Long> issuedOf = new HashMap<>();
+        String granularity = jdbc.query("select granularity from issued_forecast where location_id = ? and measure = ? "
+                + "order by issued_at desc, id desc fetch first 1 rows only", (rs, i) -> rs.getString(1), locationId,
+                measure).stream().findFirst().orElse(null);
+        if (granularity == null) {
+            return List.of();
+        }
+        jdbc.query("select e.period_start, e.actual, e.forecast, p.lo95, p.hi95, e.mase_scale, e.issued_id "
+                + "from forecast_error e join issued_forecast_point p on p.issued_id = e.issued_id and p.step = e.step "
+                + "where e.location_id = ? and e.measure = ? and e.granularity = ? and e.step = 1 and e.is_current = true",
+                rs -> {
+                    LocalDate period = rs.getObject(1, LocalDate.class);
+                    long issued = rs.getLong(7);
+                    if (issuedOf.containsKey(period) && issuedOf.get(period) > issued) {
+                        return;
+                    }
+                    issuedOf.put(period, issued);
+                    double actual = rs.getDouble(2);
+                    double forecast = rs.getDouble(3);
+                    double sigma = (rs.getDouble(5) - rs.getDouble(4)) / (2 * 1.959963984540054);
+                    Double scale = (Double) rs.getObject(6, Double.class);
+                    byPeriod.put(period, new StepOne(period, actual, forecast, actual - forecast, sigma,
+                            scale == null ? Double.NaN : scale, granularity));
+                }, locationId, measure, granularity);
+        return new ArrayList<>(byPeriod.values());
+    }
+
+    private void watch(Location location, String measure) {
+        List<StepOne> errors = stepOneErrors(location.getId(), measure);
+        if (errors.isEmpty()) {
+            return;
+        }
+        Double promised = jdbc.query("select promised_mase from issued_forecast where location_id = ? and measure = ? "
+                + "order by issued_at desc, id desc fetch first 1 rows only", (rs, i) -> (Double) rs.getObject(1,
+                Double.class), location.getId(), measure).stream().findFirst().orElse(null);
+        List<DriftSignals.Observation> obs = errors.stream()
+                .map(e -> new DriftSignals.Observation(e.error(), e.sigma(), e.maseScale())).toList();
+        Instant now = clock.instant();
+        for (Reading r : DriftSignals.persistent(obs, promised == null ? Double.NaN : promised)) {
+            var open = flags.open(location.getId(), measure, r.signal());
+            if (r.fired()) {
+                String reason = reason(r, errors);
+                if (open.isEmpty()) {
+                    flags.raise(location.getId(), measure, r.signal(), r.value(), r.limit(),
+                            errors.get(r.sinceIndex()).period(), reason, now);
+                } else {
+                    flags.update(open.get().id(), r.value(), reason);
+                }
+            } else if (open.isPresent()) {
+                flags.clear(open.get().id(), now);
+            }
+        }
+    }
+
+    /** Plain-language reason: which way sales ran and for how long, then the signal's own numbers. */
+    static String reason(Reading r, List<StepOne> errors) {
+        int run = 0;
+        double sign = Math.signum(errors.get(errors.size() - 1).error());
+        for (int i = errors.size() - 1; i >= 0 && Math.signum(errors.get(i).error()) == sign && sign != 0; i--) {
+            run++;
+        }
+        String unit = switch (errors.get(0).granularity()) {
+            case "DAY" -> run == 1 ? "day" : "days";
+            case "WEEK" -> run == 1 ? "week" : "weeks";
+            default -> run == 1 ? "month" : "months";
+        };
+        String direction = sign > 0 ? "above" : "below";
+        String what = r.signal() == Signal.ERROR_RATIO
+                ? String.format(Locale.ROOT, "Recent forecast errors are %.1f× what the model's test promised", r.value())
+                : String.format(Locale.ROOT, "Sales have run %s forecast for %d %s in a row", direction, run, unit);
+        String technical = switch (r.signal()) {
+            case TRIGG -> String.format(Locale.ROOT, "tracking signal %.2f, limit ±%.2f", r.value(), r.limit());
+            case CUMULATIVE -> String.format(Locale.ROOT, "cumulative error %.1f MADs, limit ±%.0f", r.value(), r.limit());
+            case CUSUM -> String.format(Locale.ROOT, "CUSUM %.1f, limit %.0f", Math.abs(r.value()), r.limit());
+            case ERROR_RATIO -> String.format(Locale.ROOT, "MASE ratio %.2f, limit %.1f", r.value(), r.limit());
+        };
+        return what + " (" + technical + ").";
+    }
+
+    /**
+     * Accuracy by horizon step over the current scores (optionally one location): MAE, RMSE, MAPE,
+     * MASE, bias (mean error), 80%/95% coverage, and the value added over seasonal naive on the same
+     * periods: FVA = 100·(1 − MAE_model / MAE_benchmark).
+     */
+    public record ByHorizon(int step, int count, double mae, double rmse, double mape, double mase, double bias,
+            double coverage80, double coverage95, double valueAddedPct) {
+    }
+
+    @Transactional(readOnly = true)
+    public List<ByHorizon> byHorizon(Long locationId, String measure) {
+        Map<Integer, double[]> acc = new TreeMap<>();
+        String where = "is_current = true" + (locationId == null ? "" : " and location_id = " + locationId)
+                + (measure == null ? "" : " and measure = ?");
+        Object[] args = measure == null ? new Object[0] : new Object[] {measure};
+        jdbc.query("select step, actual, forecast, benchmark, in80, in95, mase_scale from forecast_error where " + where,
+                rs -> {
+                    double[] a = acc.computeIfAbsent(rs.getInt(1), k -> new double[12]);
+                    double actual = rs.getDouble(2);
+                    double e = actual - rs.getDouble(3);
+                    a[0]++;
+                    a[1] += Math.abs(e);
+                    a[2] += e * e;
+                    if (actual != 0) {
+                        a[3] += Math.abs(e / actual);
+                        a[4]++;
+                    }
+                    Double scale = (Double) rs.getObject(7, Double.class);
+                    if (scale != null && scale > 0) {
+                        a[5] += Math.abs(e) / scale;
+                        a[6]++;
+                    }
+                    a[7] += e;
+                    a[8] += rs.getBoolean(5) ? 1 : 0;
+                    a[9] += rs.getBoolean(6) ? 1 : 0;
+                    Double bench = (Double) rs.getObject(4, Double.class);
+                    if (bench != null) {
+                        a[10] += Math.abs(e);
+                        a[11] += Math.abs(actual - bench);
+                    }
+                }, args);
+        List<ByHorizon> out = new ArrayList<>();
+        acc.forEach((step, a) -> out.add(new ByHorizon(step, (int) a[0], a[1] / a[0], Math.sqrt(a[2] / a[0]),
+                a[4] > 0 ? 100 * a[3] / a[4] : Double.NaN, a[6] > 0 ? a[5] / a[6] : Double.NaN, a[7] / a[0],
+                100 * a[8] / a[0], 100 * a[9] / a[0], a[11] > 0 ? 100 * (1 - a[10] / a[11]) : Double.NaN)));
+        return out;
+    }
+
+    @Transactional(readOnly = true)
+    public List<DriftFlag> flags(Long locationId, boolean openOnly) {
+        return flags.list(locationId, openOnly, 500);
+    }
+
+    @Transactional(readOnly = true)
+    public java.util.Optional<DriftFlag> flag(long id) {
+        return flags.byId(id);
+    }
+
+    /**
+     * Acknowledges a flag with a note, optionally snoozing it for some days.
+     *
+     * @return false when no flag has this id
+     */
+    @Transactional
+    public boolean acknowledge(long id, String by, String note, Integer snoozeDays) {
+        Instant now = clock.instant();
+        return flags.acknowledge(id, by, note == null ? null : note.strip(), now,
+                snoozeDays == null || snoozeDays <= 0 ? null : now.plus(java.time.Duration.ofDays(snoozeDays)));
+    }
+}

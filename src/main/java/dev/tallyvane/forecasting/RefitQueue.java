@@ -1,0 +1,162 @@
+package dev.tallyvane.forecasting;
+
+import com.github.kagkarlsson.scheduler.Scheduler;
+import com.github.kagkarlsson.scheduler.SchedulerClient;
+import com.github.kagkarlsson.scheduler.SchedulerName;
+import com.github.kagkarlsson.scheduler.task.CompletionHandler;
+import com.github.kagkarlsson.scheduler.task.FailureHandler;
+import com.github.kagkarlsson.scheduler.task.helper.CustomTask;
+import com.github.kagkarlsson.scheduler.task.helper.RecurringTask;
+import com.github.kagkarlsson.scheduler.task.helper.Tasks;
+import com.github.kagkarlsson.scheduler.task.schedule.Schedules;
+import dev.tallyvane.intake.FiguresRecorded;
+import java.time.Clock;
+import java.time.Duration;
+import java.time.Instant;
+import java.time.ZoneOffset;
+import java.util.List;
+import javax.sql.DataSource;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+import org.springframework.context.SmartLifecycle;
+import org.springframework.jdbc.core.JdbcTemplate;
+import org.springframework.stereotype.Service;
+import org.springframework.transaction.event.TransactionPhase;
+import org.springframework.transaction.event.TransactionalEventListener;
+import org.springframework.transaction.support.TransactionTemplate;
+
+/**
+ * The re-fit queue, shared by every instance through the database (db-scheduler: each queued
+ * re-fit is picked by exactly one instance; an instance that stops sending heartbeats has its
+ * picked re-fits revived elsewhere).
+ *
+ * <ul>
+ * <li>Committed figures queue a re-fit of each affected series, due after a short coalescing
+ * window: many posts for one series within the window make one re-fit (one queue entry per series).
+ * If figures arrive while the series is being re-fitted, the re-fit runs once more.</li>
+ * <li>A nightly sweep queues every stale series (figures newer than its last fit, or a fit older
+ * than a day).</li>
+ * <li>Owners can queue a re-fit of one location or all at once.</li>
+ * </ul>
+ */
+@Service
+public class RefitQueue implements SmartLifecycle {
+
+    private static final Logger log = LoggerFactory.getLogger(RefitQueue.class);
+    static final String REFIT = "refit";
+
+    private final RefitService refits;
+    private final SeriesStateStore state;
+    private final IssuedForecastStore issued;
+    private final RefitProperties properties;
+    private final JdbcTemplate jdbc;
+    private final TransactionTemplate transactions;
+    private final Clock clock;
+    private final DataSource dataSource;
+    private final CustomTask<Void> refitTask;
+    private final RecurringTask<Void> sweep;
+    private final SchedulerClient client;
+    private Scheduler scheduler;
+
+    RefitQueue(RefitService refits, SeriesStateStore state, IssuedForecastStore issued, RefitProperties properties,
+            DataSource dataSource, JdbcTemplate jdbc, TransactionTemplate transactions, Clock clock) {
+        this.refits = refits;
+        this.state = state;
+        this.issued = issued;
+        this.properties = properties;
+        this.jdbc = jdbc;
+        this.transactions = transactions;
+        this.clock = clock;
+        this.dataSource = dataSource;
+        this.refitTask = Tasks.custom(REFIT, Void.class)
+                .onFailure(new FailureHandler.MaxRetriesFailureHandler<>(3,
+                        new FailureHandler.ExponentialBackoffFailureHandler<>(Duration.ofSeconds(30))))
+                .onDeadExecutionRevive()
+                .execute((instance, context) -> {
+                    SeriesStateStore.SeriesKey key = SeriesStateStore.SeriesKey.parse(instance.getId());
+                    RefitService.Outcome outcome = refits.refit(key.locationId(), key.measure(), properties.instanceName());
+                    boolean again = state.changedSince(key, outcome.cutoff());
+                    return (CompletionHandler<Void>) (complete, operations) -> {
+                        if (again) {
+                            operations.reschedule(complete, Instant.now().plus(properties.coalesce()));
+                        } else {
+                            operations.remove();
+                        }
+                    };
+                });
+        this.sweep = Tasks.recurring("nightly-sweep", Schedules.daily(ZoneOffset.UTC, properties.sweepAt()))
+                .execute((instance, context) -> log.info("nightly sweep queued {} stale series", queueStale()));
+        // the client queues work whether or not this instance's scheduler is running
+        this.client = SchedulerClient.Builder.create(dataSource, List.of(refitTask, sweep)).build();
+    }
+
+    /** Figures were committed: note the change and queue a re-fit of each series after the coalescing window. */
+    @TransactionalEventListener(phase = TransactionPhase.AFTER_COMMIT)
+    void figuresRecorded(FiguresRecorded event) {
+        Instant due = Instant.now().plus(properties.coalesce());
+        for (FiguresRecorded.SeriesRef ref : event.series()) {
+            SeriesStateStore.SeriesKey key = new SeriesStateStore.SeriesKey(ref.locationId(), ref.measure());
+            transactions.executeWithoutResult(tx -> state.changed(key, event.at()));
+            client.scheduleIfNotExists(refitTask.instance(key.instance()), due);
+        }
+    }
+
+    /** Queues a re-fit now of every series of one location (or of all, when null); returns how many. */
+    public int refitNow(Long locationId) {
+        List<SeriesStateStore.SeriesKey> keys = state.all(locationId);
+        Instant now = Instant.now();
+        for (SeriesStateStore.SeriesKey key : keys) {
+            client.scheduleIfNotExists(refitTask.instance(key.instance()), now);
+        }
+        return keys.size();
+    }
+
+    /** Queues every stale series; returns how many. */
+    public int queueStale() {
+        List<SeriesStateStore.SeriesKey> keys = state.stale(clock.instant().minus(Duration.ofHours(20)));
+        Instant now = Instant.now();
+        for (SeriesStateStore.SeriesKey key : keys) {
+            client.scheduleIfNotExists(refitTask.instance(key.instance()), now);
+        }
+        return keys.size();
+    }
+
+    /** Queue progress: waiting, running, issued in the last 24 hours, series whose last re-fit failed. */
+    public record Status(long queued, long running, long doneLast24h, long failing) {
+    }
+
+    public Status status() {
+        Long queued = jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = ? and picked = false",
+                Long.class, REFIT);
+        Long running = jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = ? and picked = true",
+                Long.class, REFIT);
+        Long failing = jdbc.queryForObject("select count(*) from series_state where last_outcome like 'failed%'",
+                Long.class);
+        return new Status(queued, running, issued.issuedSince(clock.instant().minus(Duration.ofHours(24))), failing);
+    }
+
+    /** Starts this instance's worker pool (a fresh one each time: a stopped db-scheduler cannot restart). */
+    @Override
+    public synchronized void start() {
+        if (scheduler == null) {
+            scheduler = Scheduler.create(dataSource, List.of(refitTask)).startTasks(sweep)
+                    .schedulerName(new SchedulerName.Fixed(properties.instanceName()))
+                    .threads(properties.threads()).pollingInterval(properties.pollingInterval())
+                    .enableImmediateExecution().build();
+            scheduler.start();
+        }
+    }
+
+    @Override
+    public synchronized void stop() {
+        if (scheduler != null) {
+            scheduler.stop();
+            scheduler = null;
+        }
+    }
+
+    @Override
+    public synchronized boolean isRunning() {
+        return scheduler != null;
+    }
+}

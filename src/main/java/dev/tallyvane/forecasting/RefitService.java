@@ -1,0 +1,135 @@
+package dev.tallyvane.forecasting;
+
+import dev.tallyvane.accuracy.AccuracyService;
+import dev.tallyvane.engine.ForecastEngine;
+import dev.tallyvane.engine.ForecastRequest;
+import dev.tallyvane.engine.ForecastResult;
+import dev.tallyvane.engine.evaluation.ErrorSample;
+import dev.tallyvane.engine.evaluation.LeaderboardEntry;
+import dev.tallyvane.engine.evaluation.Metric;
+import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.engine.series.Series;
+import dev.tallyvane.location.Location;
+import dev.tallyvane.location.LocationService;
+import java.time.Clock;
+import java.time.Instant;
+import java.time.temporal.ChronoUnit;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Optional;
+import java.util.Set;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+import org.springframework.stereotype.Service;
+import org.springframework.transaction.annotation.Transactional;
+import tools.jackson.databind.json.JsonMapper;
+
+/**
+ * One re-fit of a location's measure: score the earlier forecasts against the actuals now known
+ * and watch for drift, then read the series, run the engine with the location's settings and
+ * issue a new forecast (with the seasonal-naive benchmark beside it, for the value added).
+ */
+@Service
+public class RefitService {
+
+    private static final Logger log = LoggerFactory.getLogger(RefitService.class);
+
+    private final LocationService locations;
+    private final SettingsService settings;
+    private final SeriesAssembler assembler;
+    private final IssuedForecastStore issued;
+    private final SeriesStateStore state;
+    private final AccuracyService accuracy;
+    private final JsonMapper json;
+    private final Clock clock;
+
+    RefitService(LocationService locations, SettingsService settings, SeriesAssembler assembler, IssuedForecastStore issued,
+            SeriesStateStore state, AccuracyService accuracy, JsonMapper json, Clock clock) {
+        this.locations = locations;
+        this.settings = settings;
+        this.assembler = assembler;
+        this.issued = issued;
+        this.state = state;
+        this.accuracy = accuracy;
+        this.json = json;
+        this.clock = clock;
+    }
+
+    /** What a re-fit did. */
+    public record Outcome(Long issuedId, String message, Instant cutoff) {
+    }
+
+    @Transactional
+    public Outcome refit(long locationId, String measure, String issuedBy) {
+        Instant cutoff = clock.instant().truncatedTo(ChronoUnit.MICROS);
+        SeriesStateStore.SeriesKey key = new SeriesStateStore.SeriesKey(locationId, measure);
+        Location location = locations.byId(locationId);
+        accuracy.scoreAndWatch(location, measure);
+        ForecastSettings s = settings.settings(locationId, measure);
+        Granularity granularity = assembler.granularity(location, measure, s);
+        Optional<Series> series = assembler.assemble(location, measure, granularity, cutoff);
+        long observed = series.map(x -> java.util.Arrays.stream(x.values()).filter(v -> !Double.isNaN(v)).count())
+                .orElse(0L);
+        if (observed < 2) {
+            String message = "not enough data: " + observed + " completed " + SettingsService.lower(granularity)
+                    + (observed == 1 ? "" : "s") + "; a forecast needs at least 2";
+            state.fitted(key, clock.instant(), cutoff, message);
+            return new Outcome(null, message, cutoff);
+        }
+        int horizon = s.horizon() != null ? s.horizon() : ForecastSettings.defaultHorizon(granularity);
+        ForecastRequest request = ForecastRequest.of(horizon).withMetric(s.metric()).withCandidates(s.candidates())
+                .withCustomWeights(s.weights()).withSeasonalPeriod(s.seasonalPeriod() == null ? 0 : s.seasonalPeriod());
+        long t0 = System.nanoTime();
+        ForecastResult result;
+        ForecastResult benchmark;
+        try {
+            result = ForecastEngine.forecast(series.get(), request);
+            int m = s.seasonalPeriod() != null ? s.seasonalPeriod() : granularity.seasonalPeriod();
+            benchmark = ForecastEngine.forecast(series.get(), ForecastRequest.of(horizon).withSeasonalPeriod(m)
+                    .withCandidates(Set.of(m >= 2 ? "snaive" : "naive")));
+        } catch (IllegalArgumentException e) {
+            String message = "failed: " + e.getMessage();
+            log.warn("re-fit of location {} {} failed: {}", locationId, measure, e.getMessage());
+            state.fitted(key, clock.instant(), cutoff, message);
+            return new Outcome(null, message, cutoff);
+        }
+        int durationMs = (int) ((System.nanoTime() - t0) / 1_000_000);
+        List<IssuedForecast.Point> points = new ArrayList<>();
+        for (int i = 0; i < result.forecasts().size(); i++) {
+            ForecastResult.ForecastPoint p = result.forecasts().get(i);
+            Double bench = benchmark.forecasts().get(i).forecast();
+            points.add(new IssuedForecast.Point(i + 1, p.period(), p.forecast(), p.lo80(), p.hi80(), p.lo95(), p.hi95(),
+                    bench, p.closed()));
+        }
+        Double promised = result.leaderboard().stream().filter(e -> e.key().equals(result.chosenKey())
+                && e.status() == LeaderboardEntry.Status.SCORED).map(e -> e.score(Metric.MASE)).findFirst().orElse(null);
+        double[] values = series.get().values();
+        boolean[] ok = new boolean[values.length];
+        for (int i = 0; i < values.length; i++) {
+            ok[i] = !Double.isNaN(values[i]);
+        }
+        int m = request.seasonalPeriod() > 0 ? request.seasonalPeriod() : granularity.seasonalPeriod();
+        double scale = ErrorSample.maseScale(values, ok, values.length, values.length > m ? m : 1);
+        IssuedForecast f = new IssuedForecast(0, locationId, measure, granularity.name(), horizon, s.metric().name(),
+                result.chosenKey(), result.chosenName(), result.chosenForm(), result.reason(),
+                result.intervalSource().name(), result.originCount(), json.writeValueAsString(result.parameters()),
+                json.writeValueAsString(result.leaderboard()), json.writeValueAsString(result.notes()), promised,
+                Double.isFinite(scale) ? scale : null, result.history().get(result.history().size() - 1).period(), cutoff,
+                ForecastEngine.VERSION, clock.instant(), issuedBy, durationMs, points);
+        long id = issued.insert(f);
+        String message = "issued #" + id + ": " + result.chosenName();
+        state.fitted(key, clock.instant(), cutoff, message);
+        return new Outcome(id, message, cutoff);
+    }
+
+    /** The newest issued forecast of a series, with its points. */
+    @Transactional(readOnly = true)
+    public Optional<IssuedForecast> current(long locationId, String measure) {
+        return issued.latest(locationId, measure);
+    }
+
+    @Transactional(readOnly = true)
+    public List<IssuedForecast> history(long locationId, String measure, Instant from, Instant to, boolean points) {
+        return issued.history(locationId, measure, from, to, 500, points);
+    }
+}

@@ -1,0 +1,74 @@
+package dev.tallyvane.forecasting;
+
+import dev.tallyvane.engine.series.CalendarFacts;
+import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.engine.series.Series;
+import dev.tallyvane.intake.SeriesReader;
+import dev.tallyvane.location.Location;
+import java.time.Instant;
+import java.time.LocalDate;
+import java.util.HashSet;
+import java.util.List;
+import java.util.Optional;
+import java.util.Set;
+import org.springframework.jdbc.core.JdbcTemplate;
+import org.springframework.stereotype.Component;
+
+/**
+ * Builds the engine's {@link Series} for a location's measure from the stored figures: at the
+ * settings' granularity (weeks when daily figures exist, unless set otherwise), as known at a
+ * moment, with gaps as missing periods, and without the period still running (its end is today or
+ * later at the location), which would look like a fall in sales.
+ */
+@Component
+class SeriesAssembler {
+
+    private final SeriesReader reader;
+    private final JdbcTemplate jdbc;
+
+    SeriesAssembler(SeriesReader reader, JdbcTemplate jdbc) {
+        this.reader = reader;
+        this.jdbc = jdbc;
+    }
+
+    /** The granularity to forecast at: the setting, else weeks when daily figures exist, else the coarsest stored. */
+    Granularity granularity(Location location, String measure, ForecastSettings settings) {
+        if (settings.granularity() != null) {
+            return settings.granularity();
+        }
+        List<String> stored = jdbc.queryForList("select distinct granularity from figure_revision where location_id = ? "
+                + "and measure = ? and superseded_at is null", String.class, location.getId(), measure);
+        if (stored.contains(Granularity.DAY.name()) || stored.contains(Granularity.WEEK.name())) {
+            return Granularity.WEEK;
+        }
+        return Granularity.MONTH;
+    }
+
+    /** The series as known at {@code asOf}, or empty when it has no complete period. */
+    Optional<Series> assemble(Location location, String measure, Granularity granularity, Instant asOf) {
+        List<SeriesReader.Point> done = reader.completed(location, measure, granularity, asOf);
+        if (done.isEmpty()) {
+            return Optional.empty();
+        }
+        LocalDate start = done.get(0).period();
+        int n = (int) granularity.periodsBetween(start, done.get(done.size() - 1).period()) + 1;
+        double[] y = new double[n];
+        java.util.Arrays.fill(y, Double.NaN);
+        for (SeriesReader.Point p : done) {
+            y[(int) granularity.periodsBetween(start, p.period())] = p.amount().doubleValue();
+        }
+        return Optional.of(new Series(granularity, start, y, calendar(location.getId(), granularity)));
+    }
+
+    private CalendarFacts calendar(long locationId, Granularity granularity) {
+        if (granularity != Granularity.DAY) {
+            return CalendarFacts.NONE;
+        }
+        Set<LocalDate> closed = new HashSet<>();
+        Set<LocalDate> holidays = new HashSet<>();
+        jdbc.query("select on_date, kind from calendar_day where location_id = ?", rs -> {
+            (rs.getString(2).equals("CLOSED") ? closed : holidays).add(rs.getObject(1, LocalDate.class));
+        }, locationId);
+        return new CalendarFacts(closed, holidays);
+    }
+}

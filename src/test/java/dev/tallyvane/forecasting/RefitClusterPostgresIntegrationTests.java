@@ -1,0 +1,87 @@
+package dev.tallyvane.forecasting;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.awaitility.Awaitility.await;
+
+import dev.tallyvane.app.TallyvaneApplication;
+import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.intake.FigureInput;
+import dev.tallyvane.intake.IntakeService;
+import dev.tallyvane.intake.Submitter;
+import dev.tallyvane.location.LocationDetails;
+import dev.tallyvane.location.LocationService;
+import dev.tallyvane.support.PostgresDatabase;
+import java.math.BigDecimal;
+import java.time.Duration;
+import java.time.LocalDate;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import org.junit.jupiter.api.AfterEach;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Test;
+import org.springframework.boot.builder.SpringApplicationBuilder;
+import org.springframework.context.ConfigurableApplicationContext;
+import org.springframework.jdbc.core.JdbcTemplate;
+
+/**
+ * Two service instances share one PostgreSQL (a database of their own): 1,000 queued re-fits are
+ * each done exactly once, and both instances do some of them.
+ */
+class RefitClusterPostgresIntegrationTests {
+
+    ConfigurableApplicationContext a;
+    ConfigurableApplicationContext b;
+
+    @BeforeEach
+    void startTwoInstances() {
+        String[] db = PostgresDatabase.fresh();
+        a = instance("node-a", db);
+        b = instance("node-b", db);
+    }
+
+    private static ConfigurableApplicationContext instance(String name, String[] db) {
+        // command-line arguments: they outrank application.yml
+        return new SpringApplicationBuilder(TallyvaneApplication.class).run("--spring.datasource.url=" + db[0],
+                "--spring.datasource.username=" + db[1], "--spring.datasource.password=" + db[2], "--server.port=0",
+                "--tallyvane.refit.instance-name=" + name, "--tallyvane.refit.threads=2",
+                "--tallyvane.refit.coalesce=500ms", "--tallyvane.refit.polling-interval=100ms",
+                "--spring.main.banner-mode=off");
+    }
+
+    @AfterEach
+    void stop() {
+        if (a != null) {
+            a.close();
+        }
+        if (b != null) {
+            b.close();
+        }
+    }
+
+    @Test
+    void everyQueuedRefitRunsOnceAndBothInstancesWork() {
+        LocationService locations = a.getBean(LocationService.class);
+        List<FigureInput> figures = new ArrayList<>();
+        for (int i = 0; i < 1000; i++) {
+            String code = "C" + i;
+            locations.create(new LocationDetails(code, "Cluster " + i, "Europe/Berlin", "EUR", null, null));
+            for (int m = 0; m < 6; m++) {
+                figures.add(new FigureInput(figures.size(), code, "net_sales", Granularity.MONTH,
+                        LocalDate.of(2026, 5 + m, 1), BigDecimal.valueOf(1000 + 10L * i + m)));
+            }
+        }
+        a.getBean(IntakeService.class).record(figures, Submitter.api("token:cluster", null), "item");
+        JdbcTemplate jdbc = a.getBean(JdbcTemplate.class);
+        await().atMost(Duration.ofSeconds(120)).pollInterval(Duration.ofMillis(250)).until(() ->
+                jdbc.queryForObject("select count(*) from issued_forecast", Long.class) >= 1000
+                        && jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = 'refit'", Long.class) == 0);
+        assertThat(jdbc.queryForObject("select count(*) from issued_forecast", Long.class)).isEqualTo(1000);
+        assertThat(jdbc.queryForObject("select count(distinct location_id) from issued_forecast", Long.class)).isEqualTo(1000);
+        List<Map<String, Object>> byInstance = jdbc.queryForList("select issued_by, count(*) as n from issued_forecast "
+                + "group by issued_by");
+        System.out.println("re-fits per instance: " + byInstance);
+        assertThat(byInstance).extracting(r -> r.get("issued_by")).containsExactlyInAnyOrder("node-a", "node-b");
+        assertThat(byInstance).allSatisfy(r -> assertThat(((Number) r.get("n")).longValue()).isGreaterThan(0));
+    }
+}
