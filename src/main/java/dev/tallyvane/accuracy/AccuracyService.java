@@ -241,6 +241,36 @@ public class AccuracyService {
         return out;
     }
 
+    /** One-step-ahead accuracy over time: for each period, measures over the last {@code window} periods. */
+    public record Rolling(LocalDate period, int count, double mae, double rmse, double mape, double bias) {
+    }
+
+    public static List<Rolling> rolling(List<StepOne> errors, int window) {
+        List<Rolling> out = new ArrayList<>();
+        for (int i = 0; i < errors.size(); i++) {
+            int from = Math.max(0, i - window + 1);
+            double abs = 0;
+            double sq = 0;
+            double pct = 0;
+            int pctCount = 0;
+            double sum = 0;
+            for (int j = from; j <= i; j++) {
+                StepOne e = errors.get(j);
+                abs += Math.abs(e.error());
+                sq += e.error() * e.error();
+                sum += e.error();
+                if (e.actual() != 0) {
+                    pct += Math.abs(e.error() / e.actual());
+                    pctCount++;
+                }
+            }
+            int n = i - from + 1;
+            out.add(new Rolling(errors.get(i).period(), n, abs / n, Math.sqrt(sq / n),
+                    pctCount == 0 ? Double.NaN : 100 * pct / pctCount, sum / n));
+        }
+        return out;
+    }
+
     @Transactional(readOnly = true)
     public List<DriftFlag> flags(Long locationId, boolean openOnly) {
         return flags.list(locationId, openOnly, 500);

@@ -115,7 +115,7 @@ class ForecastsApi {
 
     /** Realized accuracy of a series. */
     record AccuracyView(String location, String measure, List<AccuracyService.ByHorizon> byHorizon,
-            List<AccuracyService.StepOne> oneStepAhead) {
+            List<AccuracyService.StepOne> oneStepAhead, List<AccuracyService.Rolling> rollingSixPeriods) {
     }
 
     @Operation(summary = "Realized accuracy of a location's forecasts, by horizon and over time")
@@ -123,8 +123,9 @@ class ForecastsApi {
     AccuracyView accuracy(@PathVariable String code, @RequestParam(defaultValue = "net_sales") String measure,
             @AuthenticationPrincipal ApiClient client) {
         Location l = visible(code, client);
-        return new AccuracyView(l.getCode(), measure, accuracy.byHorizon(l.getId(), measure),
-                accuracy.stepOneErrors(l.getId(), measure));
+        List<AccuracyService.StepOne> stepOne = accuracy.stepOneErrors(l.getId(), measure);
+        return new AccuracyView(l.getCode(), measure, accuracy.byHorizon(l.getId(), measure), stepOne,
+                AccuracyService.rolling(stepOne, 6));
     }
 
     @Operation(summary = "Realized accuracy of all locations, by horizon")
@@ -186,6 +187,30 @@ class ForecastsApi {
     @GetMapping("/refits")
     RefitQueue.Status refitStatus() {
         return queue.status();
+    }
+
+    /** A location's calendar: closed days (forecast as 0, never scored) and holidays. */
+    record CalendarBody(List<LocalDate> closed, List<LocalDate> holidays) {
+    }
+
+    @Operation(summary = "A location's closed days and holidays")
+    @GetMapping("/locations/{code}/calendar")
+    CalendarBody calendar(@PathVariable String code, @AuthenticationPrincipal ApiClient client) {
+        List<SettingsService.CalendarEntry> entries = settings.calendar(visible(code, client).getId());
+        return new CalendarBody(entries.stream().filter(e -> e.kind().equals("CLOSED")).map(SettingsService.CalendarEntry::day)
+                .toList(), entries.stream().filter(e -> e.kind().equals("HOLIDAY")).map(SettingsService.CalendarEntry::day)
+                .toList());
+    }
+
+    @Operation(summary = "Replace a location's closed days and holidays (re-fits it)")
+    @PutMapping("/locations/{code}/calendar")
+    CalendarBody saveCalendar(@PathVariable String code, @RequestBody CalendarBody body,
+            @AuthenticationPrincipal ApiClient client) {
+        Location l = visible(code, client);
+        settings.saveCalendar(l.getId(), body.closed() == null ? List.of() : body.closed(),
+                body.holidays() == null ? List.of() : body.holidays());
+        queue.refitNow(l.getId());
+        return calendar(code, client);
     }
 
     @Operation(summary = "Forecast settings of a location's measure")
