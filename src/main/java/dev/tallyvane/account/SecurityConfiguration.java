@@ -86,7 +86,8 @@ class SecurityConfiguration {
                         .requestMatchers("/login", "/setup", "/css/**", "/js/**", "/img/**", "/webjars/**",
                                 "/favicon.ico", "/actuator/health", "/actuator/health/**", "/error").permitAll()
                         .requestMatchers("/tokens/**", "/users/**", "/audit/**").hasRole(Role.OWNER.name())
-                        .requestMatchers(HttpMethod.POST, "/locations/**").hasRole(Role.OWNER.name())
+                        .requestMatchers(HttpMethod.POST, "/locations/**", "/refits", "/flags/**")
+                        .hasRole(Role.OWNER.name())
                         .requestMatchers("/uploads/**").hasRole(Role.BOOKKEEPER.name())
                         .anyRequest().hasRole(Role.VIEWER.name()))
                 .formLogin(f -> f.loginPage("/login").defaultSuccessUrl("/", false).permitAll())

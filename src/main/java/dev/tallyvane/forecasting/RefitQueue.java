@@ -103,20 +103,26 @@ public class RefitQueue implements SmartLifecycle {
 
     /** Queues a re-fit now of every series of one location (or of all, when null); returns how many. */
     public int refitNow(Long locationId) {
-        List<SeriesStateStore.SeriesKey> keys = state.all(locationId);
-        Instant now = Instant.now();
-        for (SeriesStateStore.SeriesKey key : keys) {
-            client.scheduleIfNotExists(refitTask.instance(key.instance()), now);
-        }
-        return keys.size();
+        return dueNow(state.all(locationId));
     }
 
     /** Queues every stale series; returns how many. */
     public int queueStale() {
-        List<SeriesStateStore.SeriesKey> keys = state.stale(clock.instant().minus(Duration.ofHours(20)));
+        return dueNow(state.stale(clock.instant().minus(Duration.ofHours(20))));
+    }
+
+    /** Makes a re-fit of each series due now: queued if absent, brought forward if waiting; a running one is left. */
+    private int dueNow(List<SeriesStateStore.SeriesKey> keys) {
         Instant now = Instant.now();
         for (SeriesStateStore.SeriesKey key : keys) {
-            client.scheduleIfNotExists(refitTask.instance(key.instance()), now);
+            var instance = refitTask.instance(key.instance());
+            if (!client.scheduleIfNotExists(instance, now)) {
+                try {
+                    client.reschedule(instance, now);
+                } catch (RuntimeException picked) {
+                    // already running: it re-runs by itself if figures changed meanwhile
+                }
+            }
         }
         return keys.size();
     }

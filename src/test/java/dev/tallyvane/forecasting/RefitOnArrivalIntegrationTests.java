@@ -4,6 +4,10 @@ import static org.assertj.core.api.Assertions.assertThat;
 import static org.awaitility.Awaitility.await;
 import static org.springframework.test.web.servlet.request.MockMvcRequestBuilders.get;
 import static org.springframework.test.web.servlet.request.MockMvcRequestBuilders.post;
+import static org.hamcrest.Matchers.containsString;
+import static org.springframework.security.test.web.servlet.request.SecurityMockMvcRequestPostProcessors.csrf;
+import static org.springframework.security.test.web.servlet.request.SecurityMockMvcRequestPostProcessors.user;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.content;
 import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.jsonPath;
 import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.status;
 
@@ -46,6 +50,8 @@ class RefitOnArrivalIntegrationTests {
     TokenService tokens;
     @Autowired
     JdbcTemplate jdbc;
+    @Autowired
+    dev.tallyvane.account.UserService users;
 
     /** Monthly sales of an invented bakery: a yearly pattern, a small trend, a fixed wiggle; from July 2025 35% higher. */
     static double sales(YearMonth month) {
@@ -132,5 +138,25 @@ class RefitOnArrivalIntegrationTests {
             assertThat(r.get("is_current")).isEqualTo(true);
         });
         assertThat(march).anySatisfy(r -> assertThat(r.get("is_current")).isEqualTo(false));
+
+        // the owner sees the forecast and the flags on the location page, and acknowledges a flag there
+        dev.tallyvane.support.Users.ensure(users, "olive", dev.tallyvane.account.Role.OWNER);
+        var owner = user("olive").roles("OWNER");
+        mvc.perform(get("/locations/{c}", code).with(owner)).andExpect(status().isOk())
+                .andExpect(content().string(containsString("Current forecast")))
+                .andExpect(content().string(containsString("likely to fall in (80% and 95%)")))
+                .andExpect(content().string(containsString("Drift flags")))
+                .andExpect(content().string(containsString("above forecast")));
+        long flagId = ((Number) jdbc.queryForList("select id from drift_flag where location_id = ? and cleared_at is null",
+                l.getId()).stream().findFirst().orElseGet(() -> jdbc.queryForList("select id from drift_flag where "
+                + "location_id = ?", l.getId()).get(0)).get("id")).longValue();
+        mvc.perform(post("/flags/{id}/acknowledge", flagId).with(owner).with(csrf()).param("note", "new bakery nearby closed")
+                .param("snoozeDays", "7")).andExpect(status().isFound());
+        assertThat(jdbc.queryForObject("select acknowledged_by from drift_flag where id = ?", String.class, flagId))
+                .isEqualTo("olive");
+        mvc.perform(get("/").with(owner)).andExpect(status().isOk())
+                .andExpect(content().string(containsString("Re-fit all now")));
+        mvc.perform(post("/refits").with(user("vic").roles("VIEWER")).with(csrf())).andExpect(status().isForbidden());
+        mvc.perform(post("/refits").with(owner).with(csrf())).andExpect(status().isFound());
     }
 }

@@ -3,6 +3,7 @@ package dev.tallyvane.forecasting.web;
 import dev.tallyvane.account.ApiClient;
 import dev.tallyvane.accuracy.AccuracyService;
 import dev.tallyvane.accuracy.DriftFlag;
+import dev.tallyvane.accuracy.UnknownFlag;
 import dev.tallyvane.forecasting.ForecastSettings;
 import dev.tallyvane.forecasting.IssuedForecast;
 import dev.tallyvane.forecasting.RefitQueue;
@@ -161,12 +162,6 @@ class ForecastsApi {
         }
         accuracy.acknowledge(id, client.actor(), body == null ? null : body.note(), body == null ? null : body.snoozeDays());
         return accuracy.flag(id).orElseThrow();
-    }
-
-    static class UnknownFlag extends DomainProblem {
-        UnknownFlag(long id) {
-            super(404, "unknown-flag", "Unknown flag", "There is no flag #" + id + ".");
-        }
     }
 
     @Operation(summary = "Queue a re-fit now (one location, or all with a token for all locations)")
