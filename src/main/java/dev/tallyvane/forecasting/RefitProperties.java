@@ -12,10 +12,12 @@ import org.springframework.boot.context.properties.ConfigurationProperties;
  * @param pollingInterval how often an instance looks for due re-fits
  * @param sweepAt         time of day (UTC) of the nightly sweep that re-fits every stale series
  * @param instanceName    this instance's name in the job table (default: host name and process id)
+ * @param heartbeat       how often a running instance marks its picked re-fits alive; after six missed
+ *                        heartbeats another instance takes them over
  */
 @ConfigurationProperties("tallyvane.refit")
 public record RefitProperties(Duration coalesce, Integer threads, Duration pollingInterval, LocalTime sweepAt,
-        String instanceName) {
+        String instanceName, Duration heartbeat) {
 
     public RefitProperties {
         coalesce = coalesce == null ? Duration.ofSeconds(5) : coalesce;
@@ -23,6 +25,7 @@ public record RefitProperties(Duration coalesce, Integer threads, Duration polli
         pollingInterval = pollingInterval == null ? Duration.ofSeconds(2) : pollingInterval;
         sweepAt = sweepAt == null ? LocalTime.of(2, 0) : sweepAt;
         instanceName = instanceName == null || instanceName.isBlank() ? defaultName() : instanceName;
+        heartbeat = heartbeat == null ? Duration.ofSeconds(30) : heartbeat;
     }
 
     private static String defaultName() {

@@ -148,7 +148,7 @@ public class RefitQueue implements SmartLifecycle {
             scheduler = Scheduler.create(dataSource, List.of(refitTask)).startTasks(sweep)
                     .schedulerName(new SchedulerName.Fixed(properties.instanceName()))
                     .threads(properties.threads()).pollingInterval(properties.pollingInterval())
-                    .enableImmediateExecution().build();
+                    .heartbeatInterval(properties.heartbeat()).enableImmediateExecution().build();
             scheduler.start();
         }
     }

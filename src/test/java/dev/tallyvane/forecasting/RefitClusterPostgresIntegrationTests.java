@@ -46,6 +46,7 @@ class RefitClusterPostgresIntegrationTests {
                 "--spring.datasource.username=" + db[1], "--spring.datasource.password=" + db[2], "--server.port=0",
                 "--tallyvane.refit.instance-name=" + name, "--tallyvane.refit.threads=2",
                 "--tallyvane.refit.coalesce=500ms", "--tallyvane.refit.polling-interval=100ms",
+                "--tallyvane.refit.heartbeat=200ms",
                 "--spring.main.banner-mode=off");
     }
 
@@ -83,5 +84,32 @@ class RefitClusterPostgresIntegrationTests {
         System.out.println("re-fits per instance: " + byInstance);
         assertThat(byInstance).extracting(r -> r.get("issued_by")).containsExactlyInAnyOrder("node-a", "node-b");
         assertThat(byInstance).allSatisfy(r -> assertThat(((Number) r.get("n")).longValue()).isGreaterThan(0));
+    }
+
+    /** A re-fit claimed by an instance that then died (no heartbeat for long) is taken over by a live one. */
+    @Test
+    void aCrashedInstancesClaimedRefitIsPickedUpAgain() {
+        LocationService locations = a.getBean(LocationService.class);
+        long id = locations.create(new LocationDetails("ORPHAN", "Orphan", "Europe/Berlin", "EUR", null, null)).getId();
+        List<FigureInput> figures = new ArrayList<>();
+        for (int m = 0; m < 6; m++) {
+            figures.add(new FigureInput(m, "ORPHAN", "net_sales", Granularity.MONTH, LocalDate.of(2026, 5 + m, 1),
+                    BigDecimal.valueOf(900 + m)));
+        }
+        JdbcTemplate jdbc = a.getBean(JdbcTemplate.class);
+        a.getBean(IntakeService.class).record(figures, Submitter.api("token:cluster", null), "item");
+        // replace the queued re-fit (still inside its coalescing window) by one claimed an hour ago by an
+        // instance that has been silent since
+        jdbc.update("delete from scheduled_tasks where task_name = 'refit' and task_instance = ?", id + ":net_sales");
+        jdbc.update("insert into scheduled_tasks (task_name, task_instance, execution_time, picked, picked_by, "
+                + "last_heartbeat, version) values ('refit', ?, now() - interval '1 hour', true, 'node-dead', "
+                + "now() - interval '1 hour', 1)", id + ":net_sales");
+        await().atMost(Duration.ofSeconds(60)).pollInterval(Duration.ofMillis(200)).until(() ->
+                jdbc.queryForObject("select count(*) from issued_forecast where location_id = ?", Long.class, id) == 1
+                        && jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = 'refit'", Long.class) == 0);
+        assertThat(jdbc.queryForObject("select count(*) from issued_forecast where location_id = ?", Long.class, id))
+                .isEqualTo(1);
+        assertThat(jdbc.queryForObject("select issued_by from issued_forecast where location_id = ?", String.class, id))
+                .isIn("node-a", "node-b");
     }
 }
