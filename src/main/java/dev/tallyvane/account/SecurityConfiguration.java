@@ -120,6 +120,12 @@ class SecurityConfiguration {
             this.tokens = tokens;
         }
 
+        /** Streamed downloads finish in an async dispatch, which is authorised again: authenticate it too. */
+        @Override
+        protected boolean shouldNotFilterAsyncDispatch() {
+            return false;
+        }
+
         @Override
         protected void doFilterInternal(HttpServletRequest request, HttpServletResponse response, FilterChain chain)
                 throws ServletException, IOException {

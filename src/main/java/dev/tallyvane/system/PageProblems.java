@@ -22,4 +22,14 @@ class PageProblems {
         mv.addObject("message", e.getMessage());
         return mv;
     }
+
+    @ExceptionHandler(InvalidRequest.class)
+    ModelAndView invalid(InvalidRequest e) {
+        ModelAndView mv = new ModelAndView("error/problem");
+        mv.setStatus(HttpStatusCode.valueOf(400));
+        mv.addObject("title", "Not understood");
+        mv.addObject("message", e.getMessage() + " " + e.problems().stream()
+                .map(p -> p.field() + ": " + p.reason()).reduce((a, b) -> a + "; " + b).orElse(""));
+        return mv;
+    }
 }

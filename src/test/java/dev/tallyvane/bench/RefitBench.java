@@ -3,23 +3,13 @@ package dev.tallyvane.bench;
 import static org.awaitility.Awaitility.await;
 
 import dev.tallyvane.app.TallyvaneApplication;
-import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.forecasting.RefitQueue;
-import dev.tallyvane.intake.FigureInput;
 import dev.tallyvane.intake.IntakeService;
-import dev.tallyvane.intake.Submitter;
-import dev.tallyvane.location.LocationDetails;
 import dev.tallyvane.location.LocationService;
 import dev.tallyvane.support.PostgresDatabase;
-import java.math.BigDecimal;
-import java.math.RoundingMode;
 import java.sql.Timestamp;
 import java.time.Duration;
 import java.time.Instant;
-import java.time.LocalDate;
-import java.util.ArrayList;
-import java.util.List;
-import java.util.Random;
 import org.junit.jupiter.api.Test;
 import org.springframework.beans.factory.annotation.Autowired;
 import org.springframework.boot.test.context.SpringBootTest;
@@ -57,31 +47,8 @@ class RefitBench {
 
     @Test
     void thousandLocationsThreeYearsDaily() {
-        Random random = new Random(1000);
-        LocalDate first = LocalDate.of(2023, 12, 1);
-        int days = 3 * 365;
         long loadStart = System.nanoTime();
-        List<FigureInput> batch = new ArrayList<>();
-        for (int l = 0; l < 1000; l++) {
-            String code = "D" + l;
-            locations.create(new LocationDetails(code, "Daily " + l, "Europe/Berlin", "EUR", null, null));
-            double level = 800 + random.nextInt(2400);
-            double[] week = {0.85, 0.9, 0.95, 1.0, 1.15, 1.4, 0.75};
-            for (int d = 0; d < days; d++) {
-                LocalDate day = first.plusDays(d);
-                double v = level * (1 + 0.0002 * d) * week[day.getDayOfWeek().getValue() - 1]
-                        * (1 + 0.12 * Math.sin(2 * Math.PI * day.getDayOfYear() / 365.25)) * (1 + 0.08 * random.nextGaussian());
-                batch.add(new FigureInput(batch.size(), code, "net_sales", Granularity.DAY, day,
-                        BigDecimal.valueOf(Math.max(0, v)).setScale(2, RoundingMode.HALF_UP)));
-            }
-            if (batch.size() >= 50_000) {
-                intake.record(batch, Submitter.api("token:bench", null), "item");
-                batch.clear();
-            }
-        }
-        if (!batch.isEmpty()) {
-            intake.record(batch, Submitter.api("token:bench", null), "item");
-        }
+        DailyChain.load(locations, intake, 1000);
         System.out.printf("BENCH loaded 1,095,000 daily figures in %.1f s%n", (System.nanoTime() - loadStart) / 1e9);
         Instant t0 = Instant.now();
         long start = System.nanoTime();
