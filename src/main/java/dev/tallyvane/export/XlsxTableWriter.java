@@ -17,13 +17,19 @@ import org.apache.poi.xssf.streaming.SXSSFWorkbook;
 /**
  * XLSX through POI's streaming workbook (SXSSF: only a window of 200 rows is kept in memory, the
  * rest goes to a temporary file): typed cells (dates as dates, amounts as numbers with a currency
- * format), a bold frozen header row, column widths by kind.
+ * format), a bold frozen header row, column widths by kind. Past the format's 1,048,576 rows a
+ * sheet, the rows go on in a further sheet with the same header.
  */
 final class XlsxTableWriter implements TableWriter {
 
+    /** Rows per sheet, header included (the XLSX format's limit). */
+    static final int MAX_ROWS = 1_048_576;
+
     private final OutputStream out;
     private final SXSSFWorkbook workbook = new SXSSFWorkbook(200);
-    private final SXSSFSheet sheet;
+    private final String sheetName;
+    private final int maxRows;
+    private SXSSFSheet sheet;
     private final CellStyle date;
     private final CellStyle timestamp;
     private final CellStyle amount;
@@ -33,7 +39,14 @@ final class XlsxTableWriter implements TableWriter {
     private int rowIndex;
 
     XlsxTableWriter(OutputStream out, String sheetName) {
+        this(out, sheetName, MAX_ROWS);
+    }
+
+    /** With a smaller sheet limit, for tests of the roll-over to a further sheet. */
+    XlsxTableWriter(OutputStream out, String sheetName, int maxRows) {
         this.out = out;
+        this.sheetName = sheetName;
+        this.maxRows = maxRows;
         workbook.setCompressTempFiles(true);
         this.sheet = workbook.createSheet(sheetName);
         this.date = style("yyyy-mm-dd");
@@ -51,6 +64,10 @@ final class XlsxTableWriter implements TableWriter {
     @Override
     public void header(List<Column> columns) {
         this.columns = columns;
+        writeHeader();
+    }
+
+    private void writeHeader() {
         CellStyle bold = workbook.createCellStyle();
         Font font = workbook.createFont();
         font.setBold(true);
@@ -74,6 +91,12 @@ final class XlsxTableWriter implements TableWriter {
 
     @Override
     public void row(Object... values) {
+        if (rowIndex >= maxRows) {
+            // a sheet holds at most 1,048,576 rows: go on in a further sheet with the same header
+            sheet = workbook.createSheet(sheetName + " " + (workbook.getNumberOfSheets() + 1));
+            rowIndex = 0;
+            writeHeader();
+        }
         Row row = sheet.createRow(rowIndex++);
         for (int i = 0; i < values.length; i++) {
             Object v = values[i];

@@ -27,6 +27,23 @@ class TableWritersTests {
         assertThat(TableWriter.neutralise("")).isEmpty();
     }
 
+    @Test
+    void xlsxGoesOnInAFurtherSheetPastTheRowLimit() throws Exception {
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        try (XlsxTableWriter w = new XlsxTableWriter(out, "figures", 3)) {
+            w.header(List.of(Column.text("location"), Column.integer("n")));
+            for (int i = 0; i < 5; i++) {
+                w.row("A", i);
+            }
+        }
+        try (var wb = new org.apache.poi.xssf.usermodel.XSSFWorkbook(new java.io.ByteArrayInputStream(out.toByteArray()))) {
+            assertThat(wb.getNumberOfSheets()).isEqualTo(3);
+            assertThat(wb.getSheetName(1)).isEqualTo("figures 2");
+            assertThat(wb.getSheetAt(1).getRow(0).getCell(0).getStringCellValue()).isEqualTo("location");
+            assertThat(wb.getSheetAt(2).getRow(1).getCell(1).getNumericCellValue()).isEqualTo(4.0);
+        }
+    }
+
     /** RFC 4180: fields with the separator, quotes or line breaks are quoted; quotes doubled; reads back equal. */
     @Test
     void csvQuotesAndReadsBackExactly() throws Exception {
