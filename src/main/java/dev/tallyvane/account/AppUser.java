@@ -115,6 +115,10 @@ public class AppUser {
         this.enabled = enabled;
     }
 
+    void setWeeklyEmail(boolean wanted) {
+        this.weeklyEmail = wanted;
+    }
+
     void setPasswordHash(String hash) {
         this.passwordHash = hash;
     }

@@ -84,7 +84,7 @@ class SecurityConfiguration {
     SecurityFilterChain web(HttpSecurity http, UserService users) throws Exception {
         http.authorizeHttpRequests(a -> a
                         .requestMatchers("/login", "/setup", "/css/**", "/js/**", "/img/**", "/webjars/**",
-                                "/favicon.ico", "/actuator/health", "/actuator/health/**", "/error").permitAll()
+                                "/favicon.ico", "/actuator/health", "/actuator/health/**", "/error", "/email/unsubscribe").permitAll()
                         .requestMatchers("/tokens/**", "/users/**", "/audit/**").hasRole(Role.OWNER.name())
                         .requestMatchers(HttpMethod.POST, "/locations/**", "/refits", "/flags/**")
                         .hasRole(Role.OWNER.name())

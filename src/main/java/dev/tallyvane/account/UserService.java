@@ -176,6 +176,32 @@ public class UserService implements UserDetailsService {
         }
     }
 
+    /** A person who receives the weekly e-mail. */
+    public record Recipient(long id, String username, String displayName, String email) {
+    }
+
+    /** Enabled users with an e-mail address who want the weekly summary (owners by default, others by choice). */
+    @Transactional(readOnly = true)
+    public List<Recipient> weeklyRecipients() {
+        return users.findAllByOrderByUsernameAsc().stream()
+                .filter(u -> u.isEnabled() && u.isWeeklyEmail() && u.getEmail() != null)
+                .map(u -> new Recipient(u.getId(), u.getUsername(), u.getDisplayName(), u.getEmail())).toList();
+    }
+
+    @Transactional(readOnly = true)
+    public java.util.Optional<Recipient> recipient(String username) {
+        return users.findByUsernameIgnoreCase(username)
+                .map(u -> new Recipient(u.getId(), u.getUsername(), u.getDisplayName(), u.getEmail()));
+    }
+
+    /** Turns the weekly e-mail on or off for a user (the settings page, or a signed unsubscribe link). */
+    @Transactional
+    public void weeklyEmail(long id, boolean wanted, String actor) {
+        AppUser user = users.findById(id).orElseThrow(() -> new InvalidRequest("user", "no such user"));
+        user.setWeeklyEmail(wanted);
+        audit.record(actor, wanted ? "EMAIL_ON" : "EMAIL_OFF", user.getUsername() + " weekly summary");
+    }
+
     @Transactional
     public void loginFailed(String username) {
         users.findByUsernameIgnoreCase(username == null ? "" : username.trim())

@@ -1,8 +1,5 @@
 package dev.tallyvane.forecasting;
 
-import com.github.kagkarlsson.scheduler.Scheduler;
-import com.github.kagkarlsson.scheduler.SchedulerClient;
-import com.github.kagkarlsson.scheduler.SchedulerName;
 import com.github.kagkarlsson.scheduler.task.CompletionHandler;
 import com.github.kagkarlsson.scheduler.task.FailureHandler;
 import com.github.kagkarlsson.scheduler.task.helper.CustomTask;
@@ -10,15 +7,17 @@ import com.github.kagkarlsson.scheduler.task.helper.RecurringTask;
 import com.github.kagkarlsson.scheduler.task.helper.Tasks;
 import com.github.kagkarlsson.scheduler.task.schedule.Schedules;
 import dev.tallyvane.intake.FiguresRecorded;
+import dev.tallyvane.system.Jobs;
 import java.time.Clock;
 import java.time.Duration;
 import java.time.Instant;
 import java.time.ZoneOffset;
 import java.util.List;
-import javax.sql.DataSource;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
-import org.springframework.context.SmartLifecycle;
+import org.springframework.beans.factory.ObjectProvider;
+import org.springframework.context.annotation.Bean;
+import org.springframework.context.annotation.Configuration;
 import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.stereotype.Service;
 import org.springframework.transaction.event.TransactionPhase;
@@ -26,9 +25,7 @@ import org.springframework.transaction.event.TransactionalEventListener;
 import org.springframework.transaction.support.TransactionTemplate;
 
 /**
- * The re-fit queue, shared by every instance through the database (db-scheduler: each queued
- * re-fit is picked by exactly one instance; an instance that stops sending heartbeats has its
- * picked re-fits revived elsewhere).
+ * The re-fit queue, on the shared job queue ({@link Jobs}).
  *
  * <ul>
  * <li>Committed figures queue a re-fit of each affected series, due after a short coalescing
@@ -40,54 +37,64 @@ import org.springframework.transaction.support.TransactionTemplate;
  * </ul>
  */
 @Service
-public class RefitQueue implements SmartLifecycle {
+public class RefitQueue {
 
     private static final Logger log = LoggerFactory.getLogger(RefitQueue.class);
     static final String REFIT = "refit";
 
-    private final RefitService refits;
     private final SeriesStateStore state;
     private final IssuedForecastStore issued;
     private final RefitProperties properties;
     private final JdbcTemplate jdbc;
     private final TransactionTemplate transactions;
     private final Clock clock;
-    private final DataSource dataSource;
+    private final ObjectProvider<Jobs> jobs;
     private final CustomTask<Void> refitTask;
-    private final RecurringTask<Void> sweep;
-    private final SchedulerClient client;
-    private Scheduler scheduler;
 
-    RefitQueue(RefitService refits, SeriesStateStore state, IssuedForecastStore issued, RefitProperties properties,
-            DataSource dataSource, JdbcTemplate jdbc, TransactionTemplate transactions, Clock clock) {
-        this.refits = refits;
+    RefitQueue(SeriesStateStore state, IssuedForecastStore issued, RefitProperties properties, JdbcTemplate jdbc,
+            TransactionTemplate transactions, Clock clock, ObjectProvider<Jobs> jobs, CustomTask<Void> refitTask) {
         this.state = state;
         this.issued = issued;
         this.properties = properties;
         this.jdbc = jdbc;
         this.transactions = transactions;
         this.clock = clock;
-        this.dataSource = dataSource;
-        this.refitTask = Tasks.custom(REFIT, Void.class)
-                .onFailure(new FailureHandler.MaxRetriesFailureHandler<>(3,
-                        new FailureHandler.ExponentialBackoffFailureHandler<>(Duration.ofSeconds(30))))
-                .onDeadExecutionRevive()
-                .execute((instance, context) -> {
-                    SeriesStateStore.SeriesKey key = SeriesStateStore.SeriesKey.parse(instance.getId());
-                    RefitService.Outcome outcome = refits.refit(key.locationId(), key.measure(), properties.instanceName());
-                    boolean again = state.changedSince(key, outcome.cutoff());
-                    return (CompletionHandler<Void>) (complete, operations) -> {
-                        if (again) {
-                            operations.reschedule(complete, Instant.now().plus(properties.coalesce()));
-                        } else {
-                            operations.remove();
-                        }
-                    };
-                });
-        this.sweep = Tasks.recurring("nightly-sweep", Schedules.daily(ZoneOffset.UTC, properties.sweepAt()))
-                .execute((instance, context) -> log.info("nightly sweep queued {} stale series", queueStale()));
-        // the client queues work whether or not this instance's scheduler is running
-        this.client = SchedulerClient.Builder.create(dataSource, List.of(refitTask, sweep)).build();
+        this.jobs = jobs;
+        this.refitTask = refitTask;
+    }
+
+    /** The tasks this feature adds to the job queue. */
+    @Configuration(proxyBeanMethods = false)
+    static class RefitTasks {
+
+        @Bean
+        CustomTask<Void> refitTask(RefitService refits, SeriesStateStore state, RefitProperties properties,
+                ObjectProvider<Jobs> jobs) {
+            return Tasks.custom(REFIT, Void.class)
+                    .onFailure(new FailureHandler.MaxRetriesFailureHandler<>(3,
+                            new FailureHandler.ExponentialBackoffFailureHandler<>(Duration.ofSeconds(30))))
+                    .onDeadExecutionRevive()
+                    .execute((instance, context) -> {
+                        SeriesStateStore.SeriesKey key = SeriesStateStore.SeriesKey.parse(instance.getId());
+                        RefitService.Outcome outcome = refits.refit(key.locationId(), key.measure(),
+                                jobs.getObject().instanceName());
+                        boolean again = state.changedSince(key, outcome.cutoff());
+                        return (CompletionHandler<Void>) (complete, operations) -> {
+                            if (again) {
+                                operations.reschedule(complete, Instant.now().plus(properties.coalesce()));
+                            } else {
+                                operations.remove();
+                            }
+                        };
+                    });
+        }
+
+        @Bean
+        RecurringTask<Void> nightlySweep(RefitProperties properties, ObjectProvider<RefitQueue> queue) {
+            return Tasks.recurring("nightly-sweep", Schedules.daily(ZoneOffset.UTC, properties.sweepAt()))
+                    .execute((instance, context) -> log.info("nightly sweep queued {} stale series",
+                            queue.getObject().queueStale()));
+        }
     }
 
     /** Figures were committed: note the change and queue a re-fit of each series after the coalescing window. */
@@ -97,7 +104,7 @@ public class RefitQueue implements SmartLifecycle {
         for (FiguresRecorded.SeriesRef ref : event.series()) {
             SeriesStateStore.SeriesKey key = new SeriesStateStore.SeriesKey(ref.locationId(), ref.measure());
             transactions.executeWithoutResult(tx -> state.changed(key, event.at()));
-            client.scheduleIfNotExists(refitTask.instance(key.instance()), due);
+            jobs.getObject().client().scheduleIfNotExists(refitTask.instance(key.instance()), due);
         }
     }
 
@@ -116,9 +123,9 @@ public class RefitQueue implements SmartLifecycle {
         Instant now = Instant.now();
         for (SeriesStateStore.SeriesKey key : keys) {
             var instance = refitTask.instance(key.instance());
-            if (!client.scheduleIfNotExists(instance, now)) {
+            if (!jobs.getObject().client().scheduleIfNotExists(instance, now)) {
                 try {
-                    client.reschedule(instance, now);
+                    jobs.getObject().client().reschedule(instance, now);
                 } catch (RuntimeException picked) {
                     // already running: it re-runs by itself if figures changed meanwhile
                 }
@@ -139,30 +146,5 @@ public class RefitQueue implements SmartLifecycle {
         Long failing = jdbc.queryForObject("select count(*) from series_state where last_outcome like 'failed%'",
                 Long.class);
         return new Status(queued, running, issued.issuedSince(clock.instant().minus(Duration.ofHours(24))), failing);
-    }
-
-    /** Starts this instance's worker pool (a fresh one each time: a stopped db-scheduler cannot restart). */
-    @Override
-    public synchronized void start() {
-        if (scheduler == null) {
-            scheduler = Scheduler.create(dataSource, List.of(refitTask)).startTasks(sweep)
-                    .schedulerName(new SchedulerName.Fixed(properties.instanceName()))
-                    .threads(properties.threads()).pollingInterval(properties.pollingInterval())
-                    .heartbeatInterval(properties.heartbeat()).enableImmediateExecution().build();
-            scheduler.start();
-        }
-    }
-
-    @Override
-    public synchronized void stop() {
-        if (scheduler != null) {
-            scheduler.stop();
-            scheduler = null;
-        }
-    }
-
-    @Override
-    public synchronized boolean isRunning() {
-        return scheduler != null;
     }
 }

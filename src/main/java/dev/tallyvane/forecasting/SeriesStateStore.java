@@ -3,7 +3,6 @@ package dev.tallyvane.forecasting;
 import java.sql.Timestamp;
 import java.time.Instant;
 import java.util.List;
-import org.springframework.dao.DuplicateKeyException;
 import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.stereotype.Repository;
 
@@ -31,25 +30,18 @@ class SeriesStateStore {
 
     void changed(SeriesKey key, Instant at) {
         Timestamp ts = Timestamp.from(at);
-        if (jdbc.update("update series_state set data_changed_at = ? where location_id = ? and measure = ? and "
-                + "data_changed_at < ?", ts, key.locationId(), key.measure(), ts) == 0) {
-            try {
-                jdbc.update("insert into series_state (location_id, measure, data_changed_at) values (?, ?, ?)",
-                        key.locationId(), key.measure(), ts);
-            } catch (DuplicateKeyException exists) {
-                // a row exists with a later change already: nothing to do
-            }
-        }
+        jdbc.update("insert into series_state (location_id, measure, data_changed_at) values (?, ?, ?) on conflict do nothing",
+                key.locationId(), key.measure(), ts);
+        jdbc.update("update series_state set data_changed_at = ? where location_id = ? and measure = ? and "
+                + "data_changed_at < ?", ts, key.locationId(), key.measure(), ts);
     }
 
     void fitted(SeriesKey key, Instant at, Instant cutoff, String outcome) {
         String text = outcome.length() > 400 ? outcome.substring(0, 400) : outcome;
-        if (jdbc.update("update series_state set fitted_at = ?, fitted_cutoff = ?, last_outcome = ? where location_id = ? "
-                + "and measure = ?", Timestamp.from(at), Timestamp.from(cutoff), text, key.locationId(), key.measure()) == 0) {
-            jdbc.update("insert into series_state (location_id, measure, data_changed_at, fitted_at, fitted_cutoff, "
-                    + "last_outcome) values (?, ?, ?, ?, ?, ?)", key.locationId(), key.measure(), Timestamp.from(cutoff),
-                    Timestamp.from(at), Timestamp.from(cutoff), text);
-        }
+        jdbc.update("insert into series_state (location_id, measure, data_changed_at) values (?, ?, ?) on conflict do nothing",
+                key.locationId(), key.measure(), Timestamp.from(cutoff));
+        jdbc.update("update series_state set fitted_at = ?, fitted_cutoff = ?, last_outcome = ? where location_id = ? "
+                + "and measure = ?", Timestamp.from(at), Timestamp.from(cutoff), text, key.locationId(), key.measure());
     }
 
     /** True when figures were recorded for the series after {@code cutoff}. */

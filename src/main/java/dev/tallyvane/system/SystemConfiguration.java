@@ -7,7 +7,7 @@ import org.springframework.context.annotation.Configuration;
 
 /** Shared infrastructure beans. */
 @Configuration(proxyBeanMethods = false)
-@EnableConfigurationProperties(TallyvaneProperties.class)
+@EnableConfigurationProperties({TallyvaneProperties.class, JobsProperties.class})
 class SystemConfiguration {
 
     /** The clock everything that depends on "now" reads; tests replace it. */

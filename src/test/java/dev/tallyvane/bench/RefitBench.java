@@ -24,7 +24,7 @@ import org.springframework.test.context.DynamicPropertySource;
  * until 1,000 new forecasts are issued (default settings: weekly forecasts, 8 weeks ahead), with
  * this instance's worker pool of 2 threads on 2 cores.
  */
-@SpringBootTest(classes = TallyvaneApplication.class, properties = {"tallyvane.refit.threads=2",
+@SpringBootTest(classes = TallyvaneApplication.class, properties = {"tallyvane.jobs.threads=2",
         "tallyvane.refit.coalesce=1h"})
 class RefitBench {
 

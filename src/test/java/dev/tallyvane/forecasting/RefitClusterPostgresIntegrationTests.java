@@ -44,9 +44,9 @@ class RefitClusterPostgresIntegrationTests {
         // command-line arguments: they outrank application.yml
         return new SpringApplicationBuilder(TallyvaneApplication.class).run("--spring.datasource.url=" + db[0],
                 "--spring.datasource.username=" + db[1], "--spring.datasource.password=" + db[2], "--server.port=0",
-                "--tallyvane.refit.instance-name=" + name, "--tallyvane.refit.threads=2",
-                "--tallyvane.refit.coalesce=500ms", "--tallyvane.refit.polling-interval=100ms",
-                "--tallyvane.refit.heartbeat=200ms",
+                "--tallyvane.jobs.instance-name=" + name, "--tallyvane.jobs.threads=2",
+                "--tallyvane.refit.coalesce=500ms", "--tallyvane.jobs.polling-interval=100ms",
+                "--tallyvane.jobs.heartbeat=200ms",
                 "--spring.main.banner-mode=off");
     }
 

@@ -1,0 +1,73 @@
+package dev.tallyvane.system;
+
+import com.github.kagkarlsson.scheduler.Scheduler;
+import com.github.kagkarlsson.scheduler.SchedulerClient;
+import com.github.kagkarlsson.scheduler.SchedulerName;
+import com.github.kagkarlsson.scheduler.task.helper.RecurringTask;
+import com.github.kagkarlsson.scheduler.task.Task;
+import java.util.List;
+import javax.sql.DataSource;
+import org.springframework.context.SmartLifecycle;
+import org.springframework.stereotype.Component;
+
+/**
+ * The background job queue, shared by every instance through the database table
+ * {@code scheduled_tasks} (db-scheduler): each due job is picked by exactly one instance; an
+ * instance that stops sending heartbeats has its picked jobs revived elsewhere; recurring jobs run
+ * once per due time across the cluster. Features contribute their tasks as beans.
+ */
+@Component
+public class Jobs implements SmartLifecycle {
+
+    private final DataSource dataSource;
+    private final List<Task<?>> tasks;
+    private final JobsProperties properties;
+    private final SchedulerClient client;
+    private Scheduler scheduler;
+
+    Jobs(DataSource dataSource, List<Task<?>> tasks, JobsProperties properties) {
+        this.dataSource = dataSource;
+        this.tasks = List.copyOf(tasks);
+        this.properties = properties;
+        // the client queues work whether or not this instance's worker pool is running
+        this.client = SchedulerClient.Builder.create(dataSource, this.tasks).build();
+    }
+
+    /** Queues and reschedules jobs. */
+    public SchedulerClient client() {
+        return client;
+    }
+
+    public String instanceName() {
+        return properties.instanceName();
+    }
+
+    /** Starts this instance's worker pool (a fresh one each time: a stopped db-scheduler cannot restart). */
+    @Override
+    @SuppressWarnings({"unchecked", "rawtypes"})
+    public synchronized void start() {
+        if (scheduler == null) {
+            // recurring tasks schedule themselves at start (one-time tasks also implement OnStartup: not those)
+            List recurring = tasks.stream().filter(t -> t instanceof RecurringTask).toList();
+            List<Task<?>> others = tasks.stream().filter(t -> !(t instanceof RecurringTask)).toList();
+            scheduler = Scheduler.create(dataSource, others).startTasks(recurring)
+                    .schedulerName(new SchedulerName.Fixed(properties.instanceName()))
+                    .threads(properties.threads()).pollingInterval(properties.pollingInterval())
+                    .heartbeatInterval(properties.heartbeat()).enableImmediateExecution().build();
+            scheduler.start();
+        }
+    }
+
+    @Override
+    public synchronized void stop() {
+        if (scheduler != null) {
+            scheduler.stop();
+            scheduler = null;
+        }
+    }
+
+    @Override
+    public synchronized boolean isRunning() {
+        return scheduler != null;
+    }
+}
