@@ -146,9 +146,10 @@ public class AccuracyService {
         if (errors.isEmpty()) {
             return;
         }
-        Double promised = jdbc.query("select promised_mase from issued_forecast where location_id = ? and measure = ? "
-                + "order by issued_at desc, id desc fetch first 1 rows only", (rs, i) -> (Double) rs.getObject(1,
-                Double.class), location.getId(), measure).stream().findFirst().orElse(null);
+        List<Double> promisedList = jdbc.query("select promised_mase from issued_forecast where location_id = ? and "
+                + "measure = ? order by issued_at desc, id desc fetch first 1 rows only", (rs, i) -> (Double) rs.getObject(1,
+                Double.class), location.getId(), measure);
+        Double promised = promisedList.isEmpty() ? null : promisedList.get(0);
         List<DriftSignals.Observation> obs = errors.stream()
                 .map(e -> new DriftSignals.Observation(e.error(), e.sigma(), e.maseScale())).toList();
         Instant now = clock.instant();
