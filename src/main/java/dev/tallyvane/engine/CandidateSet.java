@@ -3,6 +3,7 @@ package dev.tallyvane.engine;
 import dev.tallyvane.engine.model.Candidate;
 import dev.tallyvane.engine.model.Drift;
 import dev.tallyvane.engine.model.ExponentialSmoothing;
+import dev.tallyvane.engine.model.HarmonicRegression;
 import dev.tallyvane.engine.model.HistoricalMean;
 import dev.tallyvane.engine.model.MovingAverage;
 import dev.tallyvane.engine.model.Naive;
@@ -50,6 +51,9 @@ public final class CandidateSet {
             list.add(new PolynomialTrend(1, true));
             list.add(new PolynomialTrend(2, true));
         }
+        if (m == 7 || m == 52) {
+            list.add(new HarmonicRegression(m));
+        }
         list.add(new ExponentialSmoothing());
         return list;
     }
@@ -57,8 +61,10 @@ public final class CandidateSet {
     /** The keys every series may use (for validating settings), with m = 12 and custom weights. */
     public static Set<String> knownKeys() {
         Set<String> keys = new java.util.TreeSet<>();
-        for (Candidate c : all(12, new double[] {1.0})) {
-            keys.add(c.key());
+        for (int m : new int[] {7, 12, 52}) {
+            for (Candidate c : all(m, new double[] {1.0})) {
+                keys.add(c.key());
+            }
         }
         return keys;
     }

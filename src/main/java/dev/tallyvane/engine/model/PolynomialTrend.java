@@ -75,32 +75,14 @@ public final class PolynomialTrend implements Candidate {
         Residuals.requireLength(y, minimumHistory(m), name());
         int n = y.length;
         double centre = (n - 1) / 2.0;
-        double[][] design = new double[n][];
-        for (int t = 0; t < n; t++) {
-            design[t] = row(t, n, centre, m);
-        }
-        LeastSquares.Fit fit = LeastSquares.fit(design, y);
-        double[] fitted = new double[n];
-        for (int t = 0; t < n; t++) {
-            fitted[t] = fit.predict(design[t]);
-        }
-        double sigma = fit.residualSd();
-        int dof = n - fit.p();
+        java.util.function.IntFunction<double[]> row = t -> row(t, n, centre, m);
+        LeastSquares.Fit fit = Regression.leastSquares(y, row, 3);
         Map<String, Double> params = new LinkedHashMap<>();
         double[] b = fit.coefficients();
         for (int j = 0; j < b.length; j++) {
             params.put(j <= degree ? "b" + j : "season" + (j - degree), b[j]);
         }
-        return new Fit(fitted, h -> {
-            double[] mean = new double[h];
-            double[] sd = new double[h];
-            for (int i = 0; i < h; i++) {
-                double[] x0 = row(n + i, n, centre, m);
-                mean[i] = fit.predict(x0);
-                sd[i] = sigma * Math.sqrt(1 + fit.leverage(x0));
-            }
-            return new PointForecast(mean, sd, dof);
-        }, params, name() + " (time centred and scaled)");
+        return Regression.model(y, row, fit, params, name() + " (time centred and scaled)");
     }
 
     private double[] row(int t, int n, double centre, int m) {

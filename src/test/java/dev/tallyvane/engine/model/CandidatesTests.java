@@ -100,6 +100,37 @@ class CandidatesTests {
     }
 
     @Test
+    void harmonicRegressionRecoversAYearlyCycleOfWeeklyData() {
+        double year = 365.25 / 7;
+        java.util.function.IntToDoubleFunction truth = t -> 1000 + 2 * t + 120 * Math.sin(2 * Math.PI * t / year)
+                + 40 * Math.cos(4 * Math.PI * t / year);
+        double[] y = new double[156];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = truth.applyAsDouble(t);
+        }
+        FittedModel fit = new HarmonicRegression(52).fit(y, 52);
+        assertThat(fit.parameters().get("harmonics")).isEqualTo(2.0);
+        PointForecast f = fit.forecast(8);
+        for (int h = 0; h < 8; h++) {
+            assertThat(f.mean()[h]).isCloseTo(truth.applyAsDouble(156 + h), within(1e-6));
+        }
+    }
+
+    @Test
+    void harmonicRegressionCarriesWeekdayEffectsOfDailyData() {
+        double[] weekday = {0, -50, -20, 0, 30, 120, 60};
+        double[] y = new double[800];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = 500 + 80 * Math.sin(2 * Math.PI * t / 365.25) + weekday[t % 7];
+        }
+        PointForecast f = new HarmonicRegression(7).fit(y, 7).forecast(7);
+        for (int h = 0; h < 7; h++) {
+            int t = 800 + h;
+            assertThat(f.mean()[h]).isCloseTo(500 + 80 * Math.sin(2 * Math.PI * t / 365.25) + weekday[t % 7], within(1e-6));
+        }
+    }
+
+    @Test
     void fittedWeightsRecoverAKnownWeightedAverageProcess() {
         // y_t = 0.7 y_{t−1} + 0.3 y_{t−2} + ε_t: weights on the simplex, identifiable thanks to the noise
         java.util.Random random = new java.util.Random(11);
