@@ -28,10 +28,7 @@ class ExportBench {
 
     @DynamicPropertySource
     static void postgres(DynamicPropertyRegistry registry) {
-        String[] db = PostgresDatabase.fresh();
-        registry.add("spring.datasource.url", () -> db[0]);
-        registry.add("spring.datasource.username", () -> db[1]);
-        registry.add("spring.datasource.password", () -> db[2]);
+        PostgresDatabase.registerFresh(registry);
     }
 
     @Autowired

@@ -3,7 +3,6 @@ package dev.tallyvane.forecasting;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.awaitility.Awaitility.await;
 
-import dev.tallyvane.app.TallyvaneApplication;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.intake.FigureInput;
 import dev.tallyvane.intake.IntakeService;
@@ -11,6 +10,7 @@ import dev.tallyvane.intake.Submitter;
 import dev.tallyvane.location.LocationDetails;
 import dev.tallyvane.location.LocationService;
 import dev.tallyvane.support.PostgresDatabase;
+import dev.tallyvane.support.ServiceInstances;
 import java.math.BigDecimal;
 import java.time.Duration;
 import java.time.LocalDate;
@@ -20,7 +20,6 @@ import java.util.Map;
 import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
-import org.springframework.boot.builder.SpringApplicationBuilder;
 import org.springframework.context.ConfigurableApplicationContext;
 import org.springframework.jdbc.core.JdbcTemplate;
 
@@ -41,13 +40,8 @@ class RefitClusterPostgresIntegrationTests {
     }
 
     private static ConfigurableApplicationContext instance(String name, String[] db) {
-        // command-line arguments: they outrank application.yml
-        return new SpringApplicationBuilder(TallyvaneApplication.class).run("--spring.datasource.url=" + db[0],
-                "--spring.datasource.username=" + db[1], "--spring.datasource.password=" + db[2], "--server.port=0",
-                "--tallyvane.jobs.instance-name=" + name, "--tallyvane.jobs.threads=2",
-                "--tallyvane.refit.coalesce=500ms", "--tallyvane.jobs.polling-interval=100ms",
-                "--tallyvane.jobs.heartbeat=200ms",
-                "--spring.main.banner-mode=off");
+        return ServiceInstances.start(name, db, "--tallyvane.jobs.threads=2", "--tallyvane.refit.coalesce=500ms",
+                "--tallyvane.jobs.heartbeat=200ms");
     }
 
     @AfterEach

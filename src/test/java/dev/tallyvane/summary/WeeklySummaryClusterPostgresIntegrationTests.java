@@ -8,7 +8,6 @@ import com.icegreen.greenmail.junit5.GreenMailExtension;
 import com.icegreen.greenmail.util.ServerSetupTest;
 import dev.tallyvane.account.Role;
 import dev.tallyvane.account.UserService;
-import dev.tallyvane.app.TallyvaneApplication;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.intake.FigureInput;
 import dev.tallyvane.intake.IntakeService;
@@ -16,6 +15,7 @@ import dev.tallyvane.intake.Submitter;
 import dev.tallyvane.location.LocationDetails;
 import dev.tallyvane.location.LocationService;
 import dev.tallyvane.support.PostgresDatabase;
+import dev.tallyvane.support.ServiceInstances;
 import java.math.BigDecimal;
 import java.time.Duration;
 import java.time.LocalDate;
@@ -26,7 +26,6 @@ import java.util.concurrent.CompletableFuture;
 import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.extension.RegisterExtension;
-import org.springframework.boot.builder.SpringApplicationBuilder;
 import org.springframework.context.ConfigurableApplicationContext;
 
 /** Two instances on one PostgreSQL both run the weekly job for the same week: each recipient gets one e-mail. */
@@ -40,11 +39,8 @@ class WeeklySummaryClusterPostgresIntegrationTests {
     ConfigurableApplicationContext b;
 
     private static ConfigurableApplicationContext instance(String name, String[] db) {
-        return new SpringApplicationBuilder(TallyvaneApplication.class).run("--spring.datasource.url=" + db[0],
-                "--spring.datasource.username=" + db[1], "--spring.datasource.password=" + db[2], "--server.port=0",
-                "--tallyvane.jobs.instance-name=" + name, "--tallyvane.jobs.polling-interval=100ms",
-                "--tallyvane.refit.coalesce=100ms", "--spring.mail.host=127.0.0.1", "--spring.mail.port=3025",
-                "--spring.main.banner-mode=off");
+        return ServiceInstances.start(name, db, "--tallyvane.refit.coalesce=100ms", "--spring.mail.host=127.0.0.1",
+                "--spring.mail.port=3025");
     }
 
     @AfterEach

@@ -74,6 +74,14 @@ public final class PostgresDatabase {
         return target;
     }
 
+    /** Registers the datasource properties of a further, empty database (for benchmarks that need their own). */
+    public static void registerFresh(DynamicPropertyRegistry registry) {
+        String[] db = fresh();
+        registry.add("spring.datasource.url", () -> db[0]);
+        registry.add("spring.datasource.username", () -> db[1]);
+        registry.add("spring.datasource.password", () -> db[2]);
+    }
+
     /**
      * A further, empty database on the same test server, for tests that must not share their data
      * (and their job queue) with other test contexts: url, user, password.
