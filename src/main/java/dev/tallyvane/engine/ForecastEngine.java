@@ -39,9 +39,9 @@ import org.apache.commons.math3.distribution.TDistribution;
  * lowest metric wins; on a tie (relative difference below 1e-9) the simpler candidate wins. With too
  * little history for a single origin the engine falls back to the naive method and says so.
  *
- * <p><b>Intervals</b>: the model's analytic σ_h where it has one (normal, or Student's t where the
+ * <p><b>Intervals</b>: the model's analytic σ_h where it has one (normal, or the t distribution where the
  * model states degrees of freedom); otherwise empirical from the rolling-origin errors: σ_h =
- * RMSE of the step-h errors (made non-decreasing in h), with Student's t on as many degrees of
+ * RMSE of the step-h errors (made non-decreasing in h), with the t distribution on as many degrees of
  * freedom as there were step-h errors, since few origins give a rough estimate of σ_h.
  *
  * <p>Deterministic: no randomness is used.

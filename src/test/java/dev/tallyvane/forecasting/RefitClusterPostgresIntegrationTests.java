@@ -17,9 +17,9 @@ import java.time.LocalDate;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
-import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.springframework.context.ConfigurableApplicationContext;
 import org.springframework.jdbc.core.JdbcTemplate;
 
@@ -29,29 +29,22 @@ import org.springframework.jdbc.core.JdbcTemplate;
  */
 class RefitClusterPostgresIntegrationTests {
 
+    @RegisterExtension
+    final ServiceInstances instances = new ServiceInstances();
+
     ConfigurableApplicationContext a;
     ConfigurableApplicationContext b;
+
+    private ConfigurableApplicationContext instance(String name, String[] db) {
+        return instances.startClosedAfterTest(name, db, "--tallyvane.jobs.threads=2", "--tallyvane.refit.coalesce=500ms",
+                "--tallyvane.jobs.heartbeat=200ms");
+    }
 
     @BeforeEach
     void startTwoInstances() {
         String[] db = PostgresDatabase.fresh();
         a = instance("node-a", db);
         b = instance("node-b", db);
-    }
-
-    private static ConfigurableApplicationContext instance(String name, String[] db) {
-        return ServiceInstances.start(name, db, "--tallyvane.jobs.threads=2", "--tallyvane.refit.coalesce=500ms",
-                "--tallyvane.jobs.heartbeat=200ms");
-    }
-
-    @AfterEach
-    void stop() {
-        if (a != null) {
-            a.close();
-        }
-        if (b != null) {
-            b.close();
-        }
     }
 
     @Test

@@ -23,7 +23,6 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.concurrent.CompletableFuture;
-import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.extension.RegisterExtension;
 import org.springframework.context.ConfigurableApplicationContext;
@@ -35,22 +34,15 @@ class WeeklySummaryClusterPostgresIntegrationTests {
     static GreenMailExtension smtp = new GreenMailExtension(ServerSetupTest.SMTP)
             .withConfiguration(GreenMailConfiguration.aConfig().withDisabledAuthentication());
 
+    @RegisterExtension
+    final ServiceInstances instances = new ServiceInstances();
+
     ConfigurableApplicationContext a;
     ConfigurableApplicationContext b;
 
-    private static ConfigurableApplicationContext instance(String name, String[] db) {
-        return ServiceInstances.start(name, db, "--tallyvane.refit.coalesce=100ms", "--spring.mail.host=127.0.0.1",
+    private ConfigurableApplicationContext instance(String name, String[] db) {
+        return instances.startClosedAfterTest(name, db, "--tallyvane.refit.coalesce=100ms", "--spring.mail.host=127.0.0.1",
                 "--spring.mail.port=3025");
-    }
-
-    @AfterEach
-    void stop() {
-        if (a != null) {
-            a.close();
-        }
-        if (b != null) {
-            b.close();
-        }
     }
 
     @Test

@@ -7,9 +7,21 @@ import org.springframework.boot.builder.SpringApplicationBuilder;
 import org.springframework.context.ConfigurableApplicationContext;
 
 /** Starts a whole service instance (own context, random port) on a given database, as a second node would be. */
-public final class ServiceInstances {
+public final class ServiceInstances implements org.junit.jupiter.api.extension.AfterEachCallback {
 
-    private ServiceInstances() {
+    private final List<ConfigurableApplicationContext> started = new ArrayList<>();
+
+    /** Starts an instance that is closed after the test (use as a {@code @RegisterExtension} field). */
+    public ConfigurableApplicationContext startClosedAfterTest(String name, String[] db, String... extra) {
+        ConfigurableApplicationContext c = start(name, db, extra);
+        started.add(c);
+        return c;
+    }
+
+    @Override
+    public void afterEach(org.junit.jupiter.api.extension.ExtensionContext context) {
+        started.forEach(ConfigurableApplicationContext::close);
+        started.clear();
     }
 
     /**

@@ -3,7 +3,7 @@ package dev.tallyvane.engine.model;
 /**
  * Point forecasts for steps 1..h, and where the model gives them, the forecast standard deviation
  * σ_h of each step and the degrees of freedom of the interval's reference distribution
- * ({@code +∞} for the normal, finite for Student's t).
+ * ({@code +∞} for the normal, finite for the t distribution).
  *
  * @param mean point forecasts
  * @param sd   forecast standard deviation per step, or {@code null} when the model has no

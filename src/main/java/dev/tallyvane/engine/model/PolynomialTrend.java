@@ -17,7 +17,7 @@ import java.util.Map;
  * raw powers cost). Forecasts extend the same formula; prediction intervals are the classical
  * regression ones:
  * <pre>
- *   σ_h = σ̂ √(1 + x₀ᵀ(XᵀX)⁻¹x₀),   with Student's t on n − p degrees of freedom
+ *   σ_h = σ̂ √(1 + x₀ᵀ(XᵀX)⁻¹x₀),   with the t distribution on n − p degrees of freedom
  * </pre>
  * (FPP3 §7.6; Montgomery, Peck &amp; Vining, <i>Introduction to Linear Regression Analysis</i>,
  * §2.5). Fitted values are in-sample (the line is fitted to the data it is scored on); the engine

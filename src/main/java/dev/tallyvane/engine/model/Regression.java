@@ -8,7 +8,7 @@ import java.util.function.IntFunction;
  * The fit shared by the regression candidates: least squares on a design whose row for period t is
  * {@code row.apply(t)}, forecasts x₀ᵀβ̂ with the classical prediction interval
  * <pre>
- *   σ_h = σ̂ √(1 + x₀ᵀ(XᵀX)⁻¹x₀),   Student's t on n − p degrees of freedom
+ *   σ_h = σ̂ √(1 + x₀ᵀ(XᵀX)⁻¹x₀),   the t distribution on n − p degrees of freedom
  * </pre>
  * (FPP3 §7.6; Montgomery, Peck &amp; Vining, <i>Introduction to Linear Regression Analysis</i>, §2.5).
  */
