@@ -1,0 +1,154 @@
+package dev.tallyvane.e2e;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.io.ByteArrayOutputStream;
+import java.io.IOException;
+import java.net.CookieManager;
+import java.net.ServerSocket;
+import java.net.URI;
+import java.net.URLEncoder;
+import java.net.http.HttpClient;
+import java.net.http.HttpRequest;
+import java.net.http.HttpResponse;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.DayOfWeek;
+import java.time.Duration;
+import java.time.LocalDate;
+import java.time.ZoneId;
+import java.time.temporal.TemporalAdjusters;
+import java.util.List;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import org.junit.jupiter.api.AfterAll;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Test;
+
+/**
+ * What a newcomer does after reading the README, against the packaged jar (not a test context):
+ * start it on an empty embedded database, read the demo sign-ins from the console, sign in, see the
+ * demo chain with forecasts and a drift flag, upload the demo CSV, and preview the weekly e-mail.
+ */
+class NewcomerEndToEndTests {
+
+    static Process service;
+    static Path console;
+    static int port;
+    static String ownerPassword;
+    static String bookkeeperPassword;
+
+    @BeforeAll
+    static void startTheJar() throws Exception {
+        Path jar = Path.of(System.getProperty("tallyvane.jar", "target/tallyvane.jar"));
+        assertThat(jar).exists();
+        try (ServerSocket s = new ServerSocket(0)) {
+            port = s.getLocalPort();
+        }
+        Path data = Files.createTempDirectory("tallyvane-e2e");
+        console = data.resolve("console.log");
+        service = new ProcessBuilder(Path.of(System.getProperty("java.home"), "bin", "java").toString(), "-jar",
+                jar.toString(), "--server.port=" + port, "--tallyvane.data-dir=" + data, "--spring.mail.port=1")
+                .redirectErrorStream(true).redirectOutput(console.toFile()).start();
+        long deadline = System.nanoTime() + Duration.ofMinutes(4).toNanos();
+        while (System.nanoTime() < deadline && !Files.readString(console).contains("sign in as")) {
+            assertThat(service.isAlive()).as("the service is running: %s", tail()).isTrue();
+            Thread.sleep(500);
+        }
+        String text = Files.readString(console);
+        ownerPassword = grab(text, "owner      / (\\S+)");
+        bookkeeperPassword = grab(text, "bookkeeper / (\\S+)");
+    }
+
+    @AfterAll
+    static void stop() throws Exception {
+        if (service != null) {
+            service.destroy();
+            service.waitFor();
+        }
+    }
+
+    private static String tail() throws IOException {
+        List<String> lines = Files.readAllLines(console);
+        return String.join("\n", lines.subList(Math.max(0, lines.size() - 30), lines.size()));
+    }
+
+    private static String grab(String text, String regex) {
+        Matcher m = Pattern.compile(regex).matcher(text);
+        assertThat(m.find()).as("console shows %s", regex).isTrue();
+        return m.group(1);
+    }
+
+    private static URI uri(String path) {
+        return URI.create("http://localhost:" + port + path);
+    }
+
+    private static String csrf(String html) {
+        Matcher m = Pattern.compile("name=\"_csrf\" value=\"([^\"]+)\"").matcher(html);
+        assertThat(m.find()).isTrue();
+        return m.group(1);
+    }
+
+    private static HttpClient signedIn(String user, String password) throws Exception {
+        HttpClient http = HttpClient.newBuilder().cookieHandler(new CookieManager())
+                .followRedirects(HttpClient.Redirect.NEVER).build();
+        String login = http.send(HttpRequest.newBuilder(uri("/login")).build(), HttpResponse.BodyHandlers.ofString()).body();
+        HttpResponse<String> r = http.send(HttpRequest.newBuilder(uri("/login"))
+                .header("Content-Type", "application/x-www-form-urlencoded")
+                .POST(HttpRequest.BodyPublishers.ofString("username=" + user + "&password="
+                        + URLEncoder.encode(password, StandardCharsets.UTF_8) + "&_csrf=" + csrf(login))).build(),
+                HttpResponse.BodyHandlers.ofString());
+        assertThat(r.headers().firstValue("Location").orElse("")).endsWith("/");
+        return http;
+    }
+
+    private static String get(HttpClient http, String path) throws Exception {
+        HttpResponse<String> r = http.send(HttpRequest.newBuilder(uri(path)).build(), HttpResponse.BodyHandlers.ofString());
+        assertThat(r.statusCode()).as("GET %s", path).isEqualTo(200);
+        return r.body();
+    }
+
+    @Test
+    void theDemoChainIsThereWithForecastsAndAFlag() throws Exception {
+        HttpClient owner = signedIn("owner", ownerPassword);
+        String home = get(owner, "/");
+        for (String code : List.of("HARBOUR", "MILLRACE", "STATION", "ORCHARD", "QUAYSIDE", "BELLTOWER", "CANALSIDE",
+                "FERNHILL")) {
+            assertThat(home).contains(code);
+        }
+        assertThat(home).contains("80% range").contains("class=\"badge warn\"").doesNotContain("none yet");
+        String canalside = get(owner, "/locations/CANALSIDE");
+        assertThat(canalside).contains("Current forecast").contains("below forecast");
+        assertThat(get(owner, "/actuator/health")).contains("UP");
+    }
+
+    @Test
+    void theBookkeeperUploadsTheDemoFile() throws Exception {
+        HttpClient bookkeeper = signedIn("bookkeeper", bookkeeperPassword);
+        String page = get(bookkeeper, "/uploads");
+        byte[] file = Files.readAllBytes(Path.of(System.getProperty("tallyvane.demoCsv", "demo/last-month.csv")));
+        String boundary = "----e2e" + System.nanoTime();
+        ByteArrayOutputStream body = new ByteArrayOutputStream();
+        body.write(("--" + boundary + "\r\nContent-Disposition: form-data; name=\"file\"; filename=\"last-month.csv\"\r\n"
+                + "Content-Type: text/csv\r\n\r\n").getBytes(StandardCharsets.UTF_8));
+        body.write(file);
+        body.write(("\r\n--" + boundary + "--\r\n").getBytes(StandardCharsets.UTF_8));
+        HttpResponse<String> r = bookkeeper.send(HttpRequest.newBuilder(uri("/uploads")).header("X-CSRF-TOKEN", csrf(page))
+                .header("Content-Type", "multipart/form-data; boundary=" + boundary)
+                .POST(HttpRequest.BodyPublishers.ofByteArray(body.toByteArray())).build(), HttpResponse.BodyHandlers.ofString());
+        assertThat(r.statusCode()).isEqualTo(302);
+        String preview = get(bookkeeper, r.headers().firstValue("Location").orElseThrow().replaceAll("^https?://[^/]+", ""));
+        assertThat(preview).contains("last-month.csv").contains("rows in the file").contains("Save these figures");
+    }
+
+    @Test
+    void theOwnerPreviewsTheWeeklyEmail() throws Exception {
+        HttpClient owner = signedIn("owner", ownerPassword);
+        LocalDate week = LocalDate.now(ZoneId.of("Europe/Berlin")).with(TemporalAdjusters.previousOrSame(DayOfWeek.MONDAY))
+                .minusWeeks(1);
+        String html = get(owner, "/email/preview?week=" + week);
+        assertThat(html).contains("Weekly summary").contains("Canalside").contains("Needs attention")
+                .contains("Forecasts are estimates");
+    }
+}
