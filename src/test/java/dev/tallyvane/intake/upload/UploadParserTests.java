@@ -115,6 +115,21 @@ class UploadParserTests {
     }
 
     @Test
+    void theDemoFilesAreCleanUploads() throws Exception {
+        UploadParser.Parsed csv = UploadParser.parse(CsvTableReader.read(
+                java.nio.file.Files.readAllBytes(java.nio.file.Path.of("demo/last-month.csv")), 1000), UploadOptions.AUTO);
+        UploadParser.Parsed xlsx = UploadParser.parse(XlsxTableReader.read(
+                java.nio.file.Files.readAllBytes(java.nio.file.Path.of("demo/last-month.xlsx")), 1000), UploadOptions.AUTO);
+        assertThat(csv.problems()).isEmpty();
+        assertThat(xlsx.problems()).isEmpty();
+        assertThat(xlsx.figures()).hasSize(csv.figures().size()).hasSize(90);
+        for (int i = 0; i < csv.figures().size(); i++) {
+            assertThat(xlsx.figures().get(i).periodStart()).isEqualTo(csv.figures().get(i).periodStart());
+            assertThat(xlsx.figures().get(i).amount()).isEqualByComparingTo(csv.figures().get(i).amount());
+        }
+    }
+
+    @Test
     void monthAndWeekPeriods() {
         UploadParser.Parsed p = csv("location,period,amount\nA,11/2026,10\nA,2026-12,10\n", UploadOptions.AUTO);
         assertThat(p.figures()).extracting(FigureInput::periodStart)
