@@ -17,8 +17,9 @@ import org.springframework.stereotype.Component;
 /**
  * Builds the engine's {@link Series} for a location's measure from the stored figures: at the
  * settings' granularity (weeks when daily figures exist, unless set otherwise), as known at a
- * moment, with gaps as missing periods, and without the period still running (its end is today or
- * later at the location), which would look like a fall in sales.
+ * moment, with gaps as missing periods, without the period still running (its end is today or
+ * later at the location) and without a first period that the daily figures only partly cover (the
+ * figures began mid-week or mid-month): either would look like a fall in sales.
  */
 @Component
 class SeriesAssembler {
@@ -47,6 +48,12 @@ class SeriesAssembler {
     /** The series as known at {@code asOf}, or empty when it has no complete period. */
     Optional<Series> assemble(Location location, String measure, Granularity granularity, Instant asOf) {
         List<SeriesReader.Point> done = reader.completed(location, measure, granularity, asOf);
+        // a first week or month rolled up from days that began mid-period holds only part of it: leave it out
+        int first = 0;
+        while (first < done.size() && !done.get(first).complete()) {
+            first++;
+        }
+        done = done.subList(first, done.size());
         if (done.isEmpty()) {
             return Optional.empty();
         }

@@ -22,8 +22,8 @@ import org.springframework.transaction.annotation.Transactional;
 
 /**
  * Computes a week's summary from the database: per location last week's actual (net sales, daily
- * figures rolled up to the ISO week), what the newest weekly forecast issued before the week began
- * said for it, next week's forecast with its 80% interval, open drift flags (not snoozed) and
+ * figures rolled up to the ISO week), what the newest weekly forecast made from data that ended
+ * before the week said for it, next week's forecast with its 80% interval, open drift flags (not snoozed) and
  * missing figures; the chain's totals; and the chain's weekly chart data.
  *
  * <p>Chain intervals add the locations' variances, σ² = Σσᵢ² with σᵢ = (hi80 − lo80)/(2·1.2816),
@@ -69,9 +69,9 @@ class SummaryBuilder {
             anyFigures |= actual != null;
             BigDecimal forecast = jdbc.query("select p.forecast from issued_forecast_point p join issued_forecast f on "
                     + "f.id = p.issued_id where f.location_id = ? and f.measure = ? and f.granularity = 'WEEK' and "
-                    + "p.period_start = ? and f.issued_at < ? order by f.id desc fetch first 1 rows only",
-                    (rs, i) -> money(rs.getDouble(1)), l.getId(), measure, weekStart,
-                    Timestamp.from(weekStart.atStartOfDay(l.zone()).toInstant())).stream().findFirst().orElse(null);
+                    + "p.period_start = ? and f.last_period < ? order by f.id desc fetch first 1 rows only",
+                    (rs, i) -> money(rs.getDouble(1)), l.getId(), measure, weekStart, weekStart).stream().findFirst()
+                    .orElse(null);
             List<double[]> ahead = jdbc.query("select p.period_start, p.forecast, p.lo80, p.hi80 from issued_forecast_point p "
                     + "where p.issued_id = (select max(f.id) from issued_forecast f where f.location_id = ? and f.measure = ? "
                     + "and f.granularity = 'WEEK') and p.period_start >= ? order by p.step", (rs, i) -> new double[] {

@@ -203,9 +203,8 @@ class WeeklySummaryIntegrationTests {
             assertThat(html).contains(formatted);
             assertThat(text).contains(code).contains(formatted);
             Double forecast = jdbc.queryForObject("select p.forecast from issued_forecast_point p join issued_forecast f "
-                    + "on f.id = p.issued_id where f.location_id = ? and p.period_start = ? and f.issued_at < ? "
-                    + "order by f.id desc fetch first 1 rows only", Double.class, l.getId(), WEEK,
-                    java.sql.Timestamp.from(Instant.parse("2026-11-22T23:00:00Z")));
+                    + "on f.id = p.issued_id where f.location_id = ? and p.period_start = ? and f.last_period < ? "
+                    + "order by f.id desc fetch first 1 rows only", Double.class, l.getId(), WEEK, WEEK);
             assertThat(html).contains(new SummaryMail.Formats(Locale.forLanguageTag("en-GB"))
                     .money(BigDecimal.valueOf(forecast).setScale(2, java.math.RoundingMode.HALF_UP), "EUR"));
         }
