@@ -1,6 +1,7 @@
 package dev.tallyvane.engine;
 
 import dev.tallyvane.engine.model.Candidate;
+import dev.tallyvane.engine.model.Croston;
 import dev.tallyvane.engine.model.Drift;
 import dev.tallyvane.engine.model.ExponentialSmoothing;
 import dev.tallyvane.engine.model.HarmonicRegression;
@@ -30,7 +31,16 @@ public final class CandidateSet {
 
     /** Every candidate for seasonal period m, with the owner's WMA weights when given. */
     public static List<Candidate> all(int m, double[] customWeights) {
+        return all(m, customWeights, false);
+    }
+
+    /** As {@link #all(int, double[])}, adding Croston and SBA when the series is intermittent. */
+    public static List<Candidate> all(int m, double[] customWeights, boolean intermittent) {
         List<Candidate> list = new ArrayList<>();
+        if (intermittent) {
+            list.add(Croston.classic());
+            list.add(Croston.syntetosBoylan());
+        }
         list.add(new Naive());
         if (m >= 2) {
             list.add(new SeasonalNaive());
@@ -62,7 +72,7 @@ public final class CandidateSet {
     public static Set<String> knownKeys() {
         Set<String> keys = new java.util.TreeSet<>();
         for (int m : new int[] {7, 12, 52}) {
-            for (Candidate c : all(m, new double[] {1.0})) {
+            for (Candidate c : all(m, new double[] {1.0}, true)) {
                 keys.add(c.key());
             }
         }
@@ -70,8 +80,8 @@ public final class CandidateSet {
     }
 
     /** {@link #all} narrowed to {@code keys} (empty = all). */
-    public static List<Candidate> select(int m, double[] customWeights, Set<String> keys) {
-        List<Candidate> all = all(m, customWeights);
+    public static List<Candidate> select(int m, double[] customWeights, Set<String> keys, boolean intermittent) {
+        List<Candidate> all = all(m, customWeights, intermittent || keys.contains("croston") || keys.contains("sba"));
         if (keys.isEmpty()) {
             return all;
         }

@@ -7,6 +7,7 @@ import dev.tallyvane.engine.evaluation.LeaderboardEntry;
 import dev.tallyvane.engine.evaluation.Metric;
 import dev.tallyvane.engine.evaluation.RollingOriginBacktest;
 import dev.tallyvane.engine.model.Candidate;
+import dev.tallyvane.engine.model.Croston;
 import dev.tallyvane.engine.model.FittedModel;
 import dev.tallyvane.engine.model.Naive;
 import dev.tallyvane.engine.model.PointForecast;
@@ -66,7 +67,11 @@ public final class ForecastEngine {
             notes.add(String.format(Locale.ROOT,
                     "%d periods are fewer than two seasonal cycles of %d: seasonal candidates are left out", n, m));
         }
-        List<Candidate> candidates = CandidateSet.select(m, request.customWeights(), request.candidateKeys());
+        boolean intermittent = Croston.intermittent(data.filled());
+        if (intermittent) {
+            notes.add("many periods without sales: Croston's method and its Syntetos-Boylan correction are compared too");
+        }
+        List<Candidate> candidates = CandidateSet.select(m, request.customWeights(), request.candidateKeys(), intermittent);
         RollingOriginBacktest backtest = RollingOriginBacktest.plan(n, h, request.maxOrigins(),
                 request.originStep(), MINIMUM_TRAINING);
 

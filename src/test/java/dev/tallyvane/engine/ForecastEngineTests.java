@@ -151,6 +151,19 @@ class ForecastEngineTests {
     }
 
     @Test
+    void intermittentSeriesBringCrostonAndSbaIntoTheComparison() {
+        double[] y = new double[60];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = t % 4 == 1 ? 2 + (t % 3) : 0;
+        }
+        ForecastResult r = ForecastEngine.forecast(monthly(y), ForecastRequest.of(3).withSeasonalPeriod(1));
+        assertThat(r.leaderboard()).extracting(LeaderboardEntry::key).contains("croston", "sba");
+        assertThat(r.notes()).anyMatch(n -> n.contains("Croston"));
+        ForecastResult regular = ForecastEngine.forecast(monthly(seasonalMonthly(36, 9)), ForecastRequest.of(3));
+        assertThat(regular.leaderboard()).extracting(LeaderboardEntry::key).doesNotContain("croston", "sba");
+    }
+
+    @Test
     void movingAverageIntervalsComeFromRollingOriginErrors() {
         ForecastResult r = ForecastEngine.forecast(monthly(seasonalMonthly(36, 6)),
                 ForecastRequest.of(3).withCandidates(Set.of("ma3")));

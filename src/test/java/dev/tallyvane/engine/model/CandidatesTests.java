@@ -99,6 +99,24 @@ class CandidatesTests {
         assertThat(f.degreesOfFreedom()).isEqualTo(24 - 4);
     }
 
+    /**
+     * Croston (1972) and SBA (Syntetos &amp; Boylan 2005) worked by hand from the published update
+     * formulas, α = 0.1: demands 3 (t = 2, first), 5 (3 periods later), 2 (2 periods later):
+     * ẑ = 3 → 0.1·5 + 0.9·3 = 3.2 → 0.1·2 + 0.9·3.2 = 3.08; p̂ = 2 → 0.1·3 + 0.9·2 = 2.1 → 0.1·2 + 0.9·2.1 = 2.09.
+     */
+    @Test
+    void crostonAndSbaFollowTheirPublishedUpdates() {
+        double[] y = {0, 3, 0, 0, 5, 0, 2};
+        assertThat(Croston.classic().fit(y, 1).forecast(2).mean()).containsExactly(new double[] {3.08 / 2.09, 3.08 / 2.09},
+                within(1e-12));
+        assertThat(Croston.syntetosBoylan().fit(y, 1).forecast(1).mean()[0]).isCloseTo(0.95 * 3.08 / 2.09, within(1e-12));
+        // the fitted value before the second demand is the rate after the first: 3/2
+        assertThat(Croston.classic().fit(y, 1).fitted()[4]).isCloseTo(1.5, within(1e-12));
+        // Syntetos, Boylan & Croston (2005) cut-off (common practice): intermittent above 1.32 periods between demands
+        assertThat(Croston.intermittent(y)).isTrue();
+        assertThat(Croston.intermittent(new double[] {1, 2, 0, 3, 4})).isFalse();
+    }
+
     @Test
     void harmonicRegressionRecoversAYearlyCycleOfWeeklyData() {
         double year = 365.25 / 7;
