@@ -10,6 +10,7 @@ import dev.tallyvane.engine.model.MovingAverage;
 import dev.tallyvane.engine.model.Naive;
 import dev.tallyvane.engine.model.PolynomialTrend;
 import dev.tallyvane.engine.model.SeasonalNaive;
+import dev.tallyvane.engine.model.Theta;
 import dev.tallyvane.engine.model.WeightedMovingAverage;
 import java.util.ArrayList;
 import java.util.List;
@@ -65,6 +66,7 @@ public final class CandidateSet {
             list.add(new HarmonicRegression(m));
         }
         list.add(new ExponentialSmoothing());
+        list.add(new Theta());
         return list;
     }
 

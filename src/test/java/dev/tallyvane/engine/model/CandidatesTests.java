@@ -118,6 +118,35 @@ class CandidatesTests {
     }
 
     @Test
+    void thetaAdjustsForAClearSeasonAndAddsHalfTheTrendAsDrift() {
+        double[] season = {0.8, 0.9, 1.0, 1.1, 1.3, 1.2, 1.0, 0.9, 0.85, 0.95, 1.05, 0.95};
+        double[] y = new double[60];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = (1000 + 5 * t) * season[t % 12];
+        }
+        assertThat(Theta.seasonal(y, 12)).isTrue();
+        double[] index = Theta.indices(y, 12);
+        double norm = java.util.Arrays.stream(season).sum() / 12;
+        for (int j = 0; j < 12; j++) {
+            // classical decomposition recovers a multiplicative pattern up to the trend's small distortion
+            assertThat(index[j]).isCloseTo(season[j] / norm, within(0.01));
+        }
+        FittedModel fit = new Theta().fit(y, 12);
+        assertThat(fit.parameters().get("seasonally_adjusted")).isEqualTo(1.0);
+        // Hyndman & Billah (2003): the drift is half the least-squares slope of the (adjusted) data, about 5/2
+        assertThat(fit.parameters().get("drift")).isCloseTo(2.5, within(0.25));
+        double[] f = fit.forecast(12).mean();
+        assertThat(f[4]).isGreaterThan(f[0]); // May above January, as in the data
+        // white noise is not seasonal
+        java.util.Random r = new java.util.Random(3);
+        double[] noise = new double[60];
+        for (int t = 0; t < noise.length; t++) {
+            noise[t] = 100 + r.nextGaussian();
+        }
+        assertThat(Theta.seasonal(noise, 12)).isFalse();
+    }
+
+    @Test
     void harmonicRegressionRecoversAYearlyCycleOfWeeklyData() {
         double year = 365.25 / 7;
         java.util.function.IntToDoubleFunction truth = t -> 1000 + 2 * t + 120 * Math.sin(2 * Math.PI * t / year)
