@@ -72,7 +72,7 @@ public final class CandidateSet {
 
     /** The keys every series may use (for validating settings), with m = 12 and custom weights. */
     public static Set<String> knownKeys() {
-        Set<String> keys = new java.util.TreeSet<>();
+        Set<String> keys = new java.util.TreeSet<>(Set.of("combo"));
         for (int m : new int[] {7, 12, 52}) {
             for (Candidate c : all(m, new double[] {1.0}, true)) {
                 keys.add(c.key());
@@ -89,6 +89,9 @@ public final class CandidateSet {
         }
         Set<String> known = knownKeys();
         for (String k : keys) {
+            if (k.equals("combo")) {
+                continue;
+            }
             if (!known.contains(k)) {
                 throw new IllegalArgumentException("unknown candidate '" + k + "'; known: " + String.join(", ", known));
             }

@@ -7,6 +7,7 @@ import dev.tallyvane.engine.evaluation.LeaderboardEntry;
 import dev.tallyvane.engine.evaluation.Metric;
 import dev.tallyvane.engine.evaluation.RollingOriginBacktest;
 import dev.tallyvane.engine.model.Candidate;
+import dev.tallyvane.engine.model.Combination;
 import dev.tallyvane.engine.model.Croston;
 import dev.tallyvane.engine.model.FittedModel;
 import dev.tallyvane.engine.model.Naive;
@@ -37,7 +38,8 @@ import org.apache.commons.math3.distribution.TDistribution;
  * </ul>
  *
  * <p><b>Selection</b>: rolling origins at the requested horizon ({@link RollingOriginBacktest});
- * lowest metric wins; on a tie (relative difference below 1e-9) the simpler candidate wins. With too
+ * the mean of the three best candidates is scored on the same origins as one more candidate
+ * ({@link Combination}); lowest metric wins; on a tie the simpler candidate wins. With too
  * little history for a single origin the engine falls back to the naive method and says so.
  *
  * <p><b>Intervals</b>: the model's analytic σ_h where it has one (normal, or the t distribution where the
@@ -53,6 +55,8 @@ public final class ForecastEngine {
     public static final String VERSION = "1.0";
 
     private static final int MINIMUM_TRAINING = 4;
+    /** How many of the best candidates the combination averages. */
+    private static final int COMBINED = 3;
 
     private ForecastEngine() {
     }
@@ -95,8 +99,17 @@ public final class ForecastEngine {
             }
         }
         Metric metric = request.metric();
-        scored.sort(Comparator.comparingDouble((Scored s) -> rankable(metric, s.score))
-                .thenComparing((a, b) -> tie(metric, a, b)));
+        Comparator<Scored> order = Comparator.comparingDouble((Scored s) -> rankable(metric, s.score))
+                .thenComparing((a, b) -> tie(metric, a, b));
+        scored.sort(order);
+        List<Scored> best = scored.stream().filter(s -> Double.isFinite(s.score)).limit(COMBINED).toList();
+        if (best.size() >= 2 && (request.candidateKeys().isEmpty() || request.candidateKeys().contains("combo"))) {
+            Combination combination = new Combination(best.stream().map(Scored::candidate).toList());
+            RollingOriginBacktest.Outcome outcome = backtest.score(Combination.average(best.stream()
+                    .map(s -> s.outcome.forecasts()).toList()), data.filled(), data.scorable(), m);
+            scored.add(new Scored(combination, outcome, outcome.errors().compute(metric)));
+            scored.sort(order);
+        }
 
         Candidate chosen;
         RollingOriginBacktest.Outcome chosenOutcome = null;

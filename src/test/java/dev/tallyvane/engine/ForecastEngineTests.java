@@ -11,6 +11,7 @@ import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.engine.series.Series;
 import java.time.LocalDate;
 import java.util.Arrays;
+import java.util.List;
 import java.util.Random;
 import java.util.Set;
 import org.junit.jupiter.api.Test;
@@ -148,6 +149,37 @@ class ForecastEngineTests {
         assertThat(r.leaderboard()).extracting(LeaderboardEntry::key).containsExactlyInAnyOrder("naive", "wma");
         assertThatThrownBy(() -> ForecastEngine.forecast(monthly(seasonalMonthly(36, 5)),
                 ForecastRequest.of(3).withCandidates(Set.of("nope")))).hasMessageContaining("unknown candidate 'nope'");
+    }
+
+    @Test
+    void theMeanOfTheThreeBestIsScoredOnTheSameOriginsAsOneMoreCandidate() {
+        Series s = monthly(seasonalMonthly(48, 12));
+        ForecastResult r = ForecastEngine.forecast(s, ForecastRequest.of(3));
+        LeaderboardEntry combo = r.leaderboard().stream().filter(e -> e.key().equals("combo")).findFirst().orElseThrow();
+        List<LeaderboardEntry> singles = r.leaderboard().stream()
+                .filter(e -> e.status() == LeaderboardEntry.Status.SCORED && !e.key().equals("combo")).limit(3).toList();
+        assertThat(combo.name()).startsWith("Mean of ").contains(singles.get(0).name());
+        // recompute: the three best alone, their origin forecasts averaged, MSE over the same actuals
+        double[] y = s.values();
+        double sum = 0;
+        int count = 0;
+        for (int origin = 48 - 3 - 5; origin <= 48 - 3; origin++) {
+            double[] training = java.util.Arrays.copyOf(y, origin);
+            double[] mean = new double[3];
+            for (LeaderboardEntry e : singles) {
+                double[] f = CandidateSet.all(12, null).stream().filter(c -> c.key().equals(e.key())).findFirst()
+                        .orElseThrow().fit(training, 12).forecast(3).mean();
+                for (int h = 0; h < 3; h++) {
+                    mean[h] += f[h] / 3;
+                }
+            }
+            for (int h = 0; h < 3; h++) {
+                sum += Math.pow(y[origin + h] - mean[h], 2);
+                count++;
+            }
+        }
+        assertThat(combo.score(Metric.MSE)).isCloseTo(sum / count, within(1e-6 * sum / count));
+        assertThat(combo.complexity()).isGreaterThan(singles.get(0).complexity());
     }
 
     @Test

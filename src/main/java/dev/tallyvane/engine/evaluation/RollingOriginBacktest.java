@@ -55,8 +55,11 @@ public final class RollingOriginBacktest {
         return horizon;
     }
 
-    /** The errors of one candidate over every origin, pooled and by horizon step. */
-    public record Outcome(ErrorSample errors, double[] sumSquaredByStep, int[] countByStep) {
+    /**
+     * The errors of one candidate over every origin, pooled and by horizon step, and its forecasts
+     * (origin × step) for combining.
+     */
+    public record Outcome(ErrorSample errors, double[] sumSquaredByStep, int[] countByStep, double[][] forecasts) {
 
         /** Root mean squared error at step h (1-based), NaN when there is none. */
         public double rmseAt(int step) {
@@ -73,23 +76,33 @@ public final class RollingOriginBacktest {
      * @throws RuntimeException whatever the candidate throws on a training window
      */
     public Outcome run(Candidate candidate, double[] y, boolean[] scorable, int seasonalPeriod) {
+        double[][] forecasts = new double[origins.length][];
+        for (int i = 0; i < origins.length; i++) {
+            double[] training = java.util.Arrays.copyOf(y, origins[i]);
+            PointForecast f = candidate.fit(training, seasonalPeriod).forecast(horizon);
+            forecasts[i] = f.mean();
+        }
+        return score(forecasts, y, scorable, seasonalPeriod);
+    }
+
+    /** Scores forecasts made at this backtest's origins (origin × step) against the data. */
+    public Outcome score(double[][] forecasts, double[] y, boolean[] scorable, int seasonalPeriod) {
         ErrorSample errors = new ErrorSample();
         double[] sumSq = new double[horizon];
         int[] counts = new int[horizon];
-        for (int origin : origins) {
-            double[] training = java.util.Arrays.copyOf(y, origin);
+        for (int i = 0; i < origins.length; i++) {
+            int origin = origins[i];
             double scale = ErrorSample.maseScale(y, scorable, origin, seasonalPeriod);
-            PointForecast f = candidate.fit(training, seasonalPeriod).forecast(horizon);
             for (int h = 1; h <= horizon; h++) {
                 int t = origin + h - 1;
                 if (t < y.length && scorable[t]) {
-                    double e = y[t] - f.mean()[h - 1];
-                    errors.add(y[t], f.mean()[h - 1], scale);
+                    double e = y[t] - forecasts[i][h - 1];
+                    errors.add(y[t], forecasts[i][h - 1], scale);
                     sumSq[h - 1] += e * e;
                     counts[h - 1]++;
                 }
             }
         }
-        return new Outcome(errors, sumSq, counts);
+        return new Outcome(errors, sumSq, counts, forecasts);
     }
 }
