@@ -169,11 +169,15 @@ public class AccuracyService {
         }
     }
 
-    /** Plain-language reason: which way sales ran and for how long, then the signal's own numbers. */
+    /**
+     * Plain-language reason: which way sales ran (the signal's own direction; for the error ratio,
+     * the latest error's) and for how long, then the signal's own numbers.
+     */
     static String reason(Reading r, List<StepOne> errors) {
+        double sign = r.signal() == Signal.ERROR_RATIO ? Math.signum(errors.get(errors.size() - 1).error())
+                : Math.signum(r.value());
         int run = 0;
-        double sign = Math.signum(errors.get(errors.size() - 1).error());
-        for (int i = errors.size() - 1; i >= 0 && Math.signum(errors.get(i).error()) == sign && sign != 0; i--) {
+        for (int i = errors.size() - 1; i >= 0 && sign != 0 && Math.signum(errors.get(i).error()) == sign; i--) {
             run++;
         }
         String unit = switch (errors.get(0).granularity()) {
@@ -182,9 +186,15 @@ public class AccuracyService {
             default -> run == 1 ? "month" : "months";
         };
         String direction = sign > 0 ? "above" : "below";
-        String what = r.signal() == Signal.ERROR_RATIO
-                ? String.format(Locale.ROOT, "Recent forecast errors are %.1f× what the model's test promised", r.value())
-                : String.format(Locale.ROOT, "Sales have run %s forecast for %d %s in a row", direction, run, unit);
+        String what;
+        if (r.signal() == Signal.ERROR_RATIO) {
+            what = String.format(Locale.ROOT, "Recent forecast errors are %.1f× what the model's test promised", r.value());
+        } else if (run > 0) {
+            what = String.format(Locale.ROOT, "Sales have run %s forecast for %d %s in a row", direction, run, unit);
+        } else {
+            LocalDate since = r.sinceIndex() >= 0 ? errors.get(r.sinceIndex()).period() : errors.get(0).period();
+            what = String.format(Locale.ROOT, "Sales have been mostly %s forecast since %s", direction, since);
+        }
         String technical = switch (r.signal()) {
             case TRIGG -> String.format(Locale.ROOT, "tracking signal %.2f, limit ±%.2f", r.value(), r.limit());
             case CUMULATIVE -> String.format(Locale.ROOT, "cumulative error %.1f MADs, limit ±%.0f", r.value(), r.limit());
