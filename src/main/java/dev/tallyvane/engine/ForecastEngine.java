@@ -100,7 +100,7 @@ public final class ForecastEngine {
         }
         Metric metric = request.metric();
         Comparator<Scored> order = Comparator.comparingDouble((Scored s) -> rankable(metric, s.score))
-                .thenComparing((a, b) -> tie(metric, a, b));
+                .thenComparingInt(s -> s.candidate.complexity());
         scored.sort(order);
         List<Scored> best = scored.stream().filter(s -> Double.isFinite(s.score)).limit(COMBINED).toList();
         if (best.size() >= 2 && (request.candidateKeys().isEmpty() || request.candidateKeys().contains("combo"))) {
@@ -153,10 +153,6 @@ public final class ForecastEngine {
     private static double rankable(Metric metric, double score) {
         double v = metric.rankingValue(score);
         return Double.isNaN(v) ? Double.POSITIVE_INFINITY : v;
-    }
-
-    private static int tie(Metric metric, Scored a, Scored b) {
-        return Integer.compare(a.candidate.complexity(), b.candidate.complexity());
     }
 
     private static String unit(Granularity g, int h) {

@@ -180,11 +180,4 @@ class FigureStore {
                 (rs, i) -> new Stored(rs.getObject(1, LocalDate.class), Granularity.valueOf(rs.getString(2)),
                         rs.getBigDecimal(3)));
     }
-
-    /** Every revision of one figure, oldest first. */
-    List<Map<String, Object>> revisions(FigureKey key) {
-        return jdbc.queryForList("select amount, recorded_at, superseded_at, source, actor, upload_id from figure_revision "
-                + "where location_id = ? and measure = ? and granularity = ? and period_start = ? order by recorded_at, id",
-                key.locationId(), key.measure(), key.granularity().name(), key.periodStart());
-    }
 }

@@ -2,7 +2,6 @@ package dev.tallyvane.system;
 
 import jakarta.servlet.http.HttpServletRequest;
 import java.net.URI;
-import java.util.List;
 import java.util.Map;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
@@ -105,10 +104,5 @@ public class ProblemResponses {
         String m = t.getMessage() == null ? t.getClass().getSimpleName() : t.getMessage();
         int nl = m.indexOf('\n');
         return nl > 0 ? m.substring(0, nl) : m;
-    }
-
-    /** Keeps the list type visible to callers building problems by hand. */
-    public static List<Map<String, Object>> errors(List<InvalidRequest.FieldProblem> problems) {
-        return problems.stream().map(ProblemResponses::asMap).toList();
     }
 }
