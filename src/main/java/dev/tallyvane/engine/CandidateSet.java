@@ -1,6 +1,7 @@
 package dev.tallyvane.engine;
 
 import dev.tallyvane.engine.model.Candidate;
+import dev.tallyvane.engine.model.Combination;
 import dev.tallyvane.engine.model.Croston;
 import dev.tallyvane.engine.model.Drift;
 import dev.tallyvane.engine.model.ExponentialSmoothing;
@@ -70,15 +71,24 @@ public final class CandidateSet {
         return list;
     }
 
-    /** The keys every series may use (for validating settings), with m = 12 and custom weights. */
+    /** The keys every series may use (for validating settings). */
     public static Set<String> knownKeys() {
-        Set<String> keys = new java.util.TreeSet<>(Set.of("combo"));
+        return catalogue().keySet();
+    }
+
+    /**
+     * Every candidate key a series may use with a general name (seasonal ones appear for daily,
+     * weekly and monthly seasons alike), sorted by key; includes the combination.
+     */
+    public static java.util.SortedMap<String, String> catalogue() {
+        java.util.SortedMap<String, String> names = new java.util.TreeMap<>();
+        names.put(Combination.KEY, Combination.GENERAL_NAME);
         for (int m : new int[] {7, 12, 52}) {
             for (Candidate c : all(m, new double[] {1.0}, true)) {
-                keys.add(c.key());
+                names.putIfAbsent(c.key(), c.key().equals("wma") ? "Weighted moving average with your weights" : c.name());
             }
         }
-        return keys;
+        return java.util.Collections.unmodifiableSortedMap(names);
     }
 
     /** {@link #all} narrowed to {@code keys} (empty = all). */
@@ -89,7 +99,7 @@ public final class CandidateSet {
         }
         Set<String> known = knownKeys();
         for (String k : keys) {
-            if (k.equals("combo")) {
+            if (k.equals(Combination.KEY)) {
                 continue;
             }
             if (!known.contains(k)) {

@@ -84,7 +84,8 @@ public final class ForecastEngine {
         for (Candidate c : candidates) {
             int needed = c.minimumHistory(m);
             if (backtest.originCount() == 0 || needed > backtest.earliestTraining()) {
-                int total = needed + h + (Math.max(1, backtest.originCount()) - 1) * request.originStep();
+                int total = Math.max(needed, MINIMUM_TRAINING) + h + (Math.max(1, backtest.originCount()) - 1)
+                        * request.originStep();
                 unscored.add(new LeaderboardEntry(c.key(), c.name(), c.complexity(),
                         LeaderboardEntry.Status.NOT_ENOUGH_HISTORY, Map.of(), 0, 0, 0,
                         "needs about " + total + " periods for an out-of-sample test at this horizon; has " + n));
@@ -103,7 +104,7 @@ public final class ForecastEngine {
                 .thenComparingInt(s -> s.candidate.complexity());
         scored.sort(order);
         List<Scored> best = scored.stream().filter(s -> Double.isFinite(s.score)).limit(COMBINED).toList();
-        if (best.size() >= 2 && (request.candidateKeys().isEmpty() || request.candidateKeys().contains("combo"))) {
+        if (best.size() >= 2 && (request.candidateKeys().isEmpty() || request.candidateKeys().contains(Combination.KEY))) {
             Combination combination = new Combination(best.stream().map(Scored::candidate).toList());
             RollingOriginBacktest.Outcome outcome = backtest.score(Combination.average(best.stream()
                     .map(s -> s.outcome.forecasts()).toList()), data.filled(), data.scorable(), m);

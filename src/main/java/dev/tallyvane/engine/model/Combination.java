@@ -23,9 +23,15 @@ public final class Combination implements Candidate {
         this.members = List.copyOf(members);
     }
 
+    /** The combination's candidate key. */
+    public static final String KEY = "combo";
+
+    /** Its name before the members are known (settings, documentation). */
+    public static final String GENERAL_NAME = "Combination: mean of the three best on the backtest";
+
     @Override
     public String key() {
-        return "combo";
+        return KEY;
     }
 
     @Override
