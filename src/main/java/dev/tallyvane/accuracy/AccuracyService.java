@@ -146,6 +146,7 @@ public class AccuracyService {
         if (errors.isEmpty()) {
             return;
         }
+        glance(location.getId(), measure, errors);
         List<Double> promisedList = jdbc.query("select promised_mase from issued_forecast where location_id = ? and "
                 + "measure = ? order by issued_at desc, id desc fetch first 1 rows only", (rs, i) -> (Double) rs.getObject(1,
                 Double.class), location.getId(), measure);
@@ -167,6 +168,58 @@ public class AccuracyService {
                 flags.clear(open.get().id(), now);
             }
         }
+    }
+
+    /** Absolute percentage errors kept for the overview's trend line. */
+    static final int GLANCE_PERIODS = 12;
+
+    /**
+     * A series at a glance: the newest one-step-ahead forecast against its actual and the absolute
+     * percentage errors of the last {@link #GLANCE_PERIODS} periods (oldest first; NaN where the
+     * actual was zero).
+     */
+    public record Glance(long locationId, String granularity, LocalDate lastPeriod, double lastActual,
+            double lastForecast, double[] recentApe) {
+
+        /** Percentage error of the newest period, (actual − forecast) / actual × 100; NaN when the actual is 0. */
+        public double lastErrorPct() {
+            return lastActual == 0 ? Double.NaN : 100 * (lastActual - lastForecast) / lastActual;
+        }
+    }
+
+    private void glance(long locationId, String measure, List<StepOne> errors) {
+        StepOne last = errors.get(errors.size() - 1);
+        StringBuilder ape = new StringBuilder();
+        for (StepOne e : errors.subList(Math.max(0, errors.size() - GLANCE_PERIODS), errors.size())) {
+            if (ape.length() > 0) {
+                ape.append(',');
+            }
+            if (e.actual() != 0) {
+                ape.append(String.format(Locale.ROOT, "%.2f", Math.min(9999, Math.abs(100 * e.error() / e.actual()))));
+            }
+        }
+        Timestamp now = Timestamp.from(clock.instant());
+        jdbc.update("insert into accuracy_glance (location_id, measure, granularity, last_period, last_actual, "
+                + "last_forecast, recent_ape, updated_at) values (?, ?, ?, ?, ?, ?, ?, ?) on conflict do nothing",
+                locationId, measure, last.granularity(), last.period(), last.actual(), last.forecast(), ape.toString(), now);
+        jdbc.update("update accuracy_glance set granularity = ?, last_period = ?, last_actual = ?, last_forecast = ?, "
+                + "recent_ape = ?, updated_at = ? where location_id = ? and measure = ?", last.granularity(), last.period(),
+                last.actual(), last.forecast(), ape.toString(), now, locationId, measure);
+    }
+
+    /** Every series of a measure at a glance, by location id. */
+    @Transactional(readOnly = true)
+    public Map<Long, Glance> glances(String measure) {
+        Map<Long, Glance> out = new HashMap<>();
+        jdbc.query("select location_id, granularity, last_period, last_actual, last_forecast, recent_ape from "
+                + "accuracy_glance where measure = ?", rs -> {
+                    String text = rs.getString(6);
+                    double[] ape = text.isEmpty() ? new double[0] : java.util.Arrays.stream(text.split(",", -1))
+                            .mapToDouble(v -> v.isEmpty() ? Double.NaN : Double.parseDouble(v)).toArray();
+                    out.put(rs.getLong(1), new Glance(rs.getLong(1), rs.getString(2), rs.getObject(3, LocalDate.class),
+                            rs.getDouble(4), rs.getDouble(5), ape));
+                }, measure);
+        return out;
     }
 
     /**

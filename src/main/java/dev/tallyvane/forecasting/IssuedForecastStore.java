@@ -120,6 +120,20 @@ class IssuedForecastStore {
                 f.dataCutoff(), f.engineVersion(), f.issuedAt(), f.issuedBy(), f.durationMs(), points);
     }
 
+    /** Replaces the series' newest fitted history (one row per series). */
+    void saveFit(long locationId, String measure, long issuedId, String historyJson) {
+        jdbc.update("insert into series_fit (location_id, measure, issued_id, history_json) values (?, ?, ?, ?) "
+                + "on conflict do nothing", locationId, measure, issuedId, historyJson);
+        jdbc.update("update series_fit set issued_id = ?, history_json = ? where location_id = ? and measure = ? "
+                + "and issued_id <= ?", issuedId, historyJson, locationId, measure, issuedId);
+    }
+
+    /** The newest fitted history as stored, with its forecast's id. */
+    Optional<java.util.Map.Entry<Long, String>> fit(long locationId, String measure) {
+        return jdbc.query("select issued_id, history_json from series_fit where location_id = ? and measure = ?",
+                (rs, i) -> java.util.Map.entry(rs.getLong(1), rs.getString(2)), locationId, measure).stream().findFirst();
+    }
+
     long issuedSince(Instant since) {
         return jdbc.queryForObject("select count(*) from issued_forecast where issued_at >= ?", Long.class,
                 Timestamp.from(since));

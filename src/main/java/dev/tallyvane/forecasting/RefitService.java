@@ -117,9 +117,45 @@ public class RefitService {
                 Double.isFinite(scale) ? scale : null, result.history().get(result.history().size() - 1).period(), cutoff,
                 ForecastEngine.VERSION, clock.instant(), issuedBy, durationMs, points);
         long id = issued.insert(f);
+        issued.saveFit(locationId, measure, id, json.writeValueAsString(fitted(result.history())));
         String message = "issued #" + id + ": " + result.chosenName();
         state.fitted(key, clock.instant(), cutoff, message);
         return new Outcome(id, message, cutoff);
+    }
+
+    /** The newest {@link FittedHistory#KEPT} periods as compact rows {@code [period, actual, fitted]}. */
+    private static List<Object[]> fitted(List<ForecastResult.HistoryPoint> history) {
+        List<Object[]> rows = new ArrayList<>();
+        for (ForecastResult.HistoryPoint h : history.subList(Math.max(0, history.size() - FittedHistory.KEPT),
+                history.size())) {
+            boolean observed = "OBSERVED".equals(h.status());
+            rows.add(new Object[] {h.period().toString(), observed && Double.isFinite(h.actual()) ? h.actual() : null,
+                    Double.isFinite(h.fitted()) ? h.fitted() : null});
+        }
+        return rows;
+    }
+
+    /** The data and fitted values behind the newest forecast of a series. */
+    @Transactional(readOnly = true)
+    public Optional<FittedHistory> fittedHistory(long locationId, String measure) {
+        return issued.fit(locationId, measure).map(e -> {
+            List<FittedHistory.Point> points = new ArrayList<>();
+            for (tools.jackson.databind.JsonNode row : json.readTree(e.getValue())) {
+                points.add(new FittedHistory.Point(java.time.LocalDate.parse(row.get(0).asString()), number(row.get(1)),
+                        number(row.get(2))));
+            }
+            return new FittedHistory(e.getKey(), points);
+        });
+    }
+
+    private static Double number(tools.jackson.databind.JsonNode n) {
+        return n == null || n.isNull() ? null : n.asDouble();
+    }
+
+    /** What the last fit of a series did, e.g. why there is no forecast yet. */
+    @Transactional(readOnly = true)
+    public Optional<String> lastOutcome(long locationId, String measure) {
+        return state.outcome(new SeriesStateStore.SeriesKey(locationId, measure));
     }
 
     /** The newest issued forecast of a series, with its points. */

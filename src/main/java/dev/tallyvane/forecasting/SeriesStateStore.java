@@ -44,6 +44,13 @@ class SeriesStateStore {
                 + "and measure = ?", Timestamp.from(at), Timestamp.from(cutoff), text, key.locationId(), key.measure());
     }
 
+    /** What the last fit of the series did ("issued #…", "not enough data: …", "failed: …"), if it ran. */
+    java.util.Optional<String> outcome(SeriesKey key) {
+        return jdbc.query("select last_outcome from series_state where location_id = ? and measure = ? and "
+                + "last_outcome is not null", (rs, i) -> rs.getString(1), key.locationId(), key.measure())
+                .stream().findFirst();
+    }
+
     /** True when figures were recorded for the series after {@code cutoff}. */
     boolean changedSince(SeriesKey key, Instant cutoff) {
         Integer n = jdbc.queryForObject("select count(*) from series_state where location_id = ? and measure = ? and "

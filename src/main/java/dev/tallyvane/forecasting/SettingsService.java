@@ -113,6 +113,15 @@ public class SettingsService {
         return settings(locationId, measure);
     }
 
+    /** Saves settings and the calendar together: both or neither. */
+    @Transactional
+    public ForecastSettings saveWithCalendar(long locationId, String measure, SettingsInput in, List<LocalDate> closed,
+            List<LocalDate> holidays, String actor) {
+        ForecastSettings saved = save(locationId, measure, in, actor);
+        saveCalendar(locationId, closed, holidays);
+        return saved;
+    }
+
     /** A day in a location's calendar. */
     public record CalendarEntry(LocalDate day, String kind) {
     }
