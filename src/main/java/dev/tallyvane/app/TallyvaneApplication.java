@@ -17,7 +17,7 @@ import org.springframework.scheduling.annotation.EnableScheduling;
 @SpringBootApplication(scanBasePackages = {
         "dev.tallyvane.system", "dev.tallyvane.location", "dev.tallyvane.intake",
         "dev.tallyvane.account", "dev.tallyvane.forecasting", "dev.tallyvane.accuracy", "dev.tallyvane.export",
-        "dev.tallyvane.summary", "dev.tallyvane.demo" })
+        "dev.tallyvane.summary", "dev.tallyvane.dashboard", "dev.tallyvane.demo" })
 @EntityScan(basePackages = "dev.tallyvane")
 @EnableJpaRepositories(basePackages = "dev.tallyvane")
 @EnableScheduling

@@ -1,0 +1,57 @@
+package dev.tallyvane.dashboard;
+
+import dev.tallyvane.accuracy.AccuracyService;
+import dev.tallyvane.accuracy.DriftFlag;
+import dev.tallyvane.forecasting.IssuedForecast;
+import dev.tallyvane.forecasting.RefitService;
+import dev.tallyvane.intake.FigureFacts;
+import dev.tallyvane.intake.FigureRules;
+import dev.tallyvane.location.Location;
+import java.util.List;
+import java.util.Optional;
+import org.springframework.stereotype.Service;
+import org.springframework.transaction.annotation.Transactional;
+import tools.jackson.databind.json.JsonMapper;
+
+/** Everything the location page shows besides its forms, read in one transaction. */
+@Service
+public class LocationPage {
+
+    private final RefitService refits;
+    private final AccuracyService accuracy;
+    private final FigureFacts figures;
+    private final LocationCharts charts;
+    private final JsonMapper json;
+
+    LocationPage(RefitService refits, AccuracyService accuracy, FigureFacts figures, LocationCharts charts,
+            JsonMapper json) {
+        this.refits = refits;
+        this.accuracy = accuracy;
+        this.figures = figures;
+        this.charts = charts;
+        this.json = json;
+    }
+
+    /**
+     * The page's content.
+     *
+     * @param forecast    the current forecast, or null
+     * @param leaderboard its candidates, or null
+     * @param lastOutcome what the last fit did (why there is no forecast yet), or null
+     * @param chart       the forecast chart's numbers (also its data table), or null
+     * @param accuracy    accuracy over time and by horizon
+     */
+    public record Content(IssuedForecast forecast, Leaderboard leaderboard, String lastOutcome,
+            LocationCharts.ForecastChart chart, LocationCharts.AccuracyChart accuracy, List<DriftFlag> flags,
+            List<FigureFacts.Recent> recent) {
+    }
+
+    @Transactional(readOnly = true)
+    public Content of(Location l) {
+        String measure = FigureRules.DEFAULT_MEASURE;
+        Optional<IssuedForecast> f = refits.current(l.getId(), measure);
+        return new Content(f.orElse(null), f.map(x -> Leaderboard.of(x, json)).orElse(null),
+                refits.lastOutcome(l.getId(), measure).orElse(null), charts.forecast(l).orElse(null),
+                charts.accuracy(l), accuracy.flags(l.getId(), false), figures.recent(l.getId(), 60));
+    }
+}

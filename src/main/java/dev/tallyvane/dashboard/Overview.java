@@ -1,0 +1,263 @@
+package dev.tallyvane.dashboard;
+
+import dev.tallyvane.accuracy.AccuracyService;
+import dev.tallyvane.accuracy.AccuracyService.Glance;
+import dev.tallyvane.accuracy.DriftFlag;
+import dev.tallyvane.forecasting.NextPeriods;
+import dev.tallyvane.forecasting.NextPeriods.Next;
+import dev.tallyvane.intake.FigureRules;
+import dev.tallyvane.location.Location;
+import dev.tallyvane.location.LocationService;
+import java.time.LocalDate;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.function.Function;
+import java.util.stream.Collectors;
+import org.springframework.stereotype.Service;
+import org.springframework.transaction.annotation.Transactional;
+
+/**
+ * The overview: one row per location with last period's actual against what was forecast for it,
+ * next period's forecast with its 80% interval, the chosen model, the recent error trend and open
+ * drift flags; filtered, sorted and cut into pages in memory (a few thousand rows at most), with
+ * totals for the chain over every filtered row. Reads four small per-series tables, never history.
+ */
+@Service
+public class Overview {
+
+    /** Rows per page. */
+    public static final int PAGE_SIZE = 50;
+
+    private final LocationService locations;
+    private final NextPeriods next;
+    private final AccuracyService accuracy;
+
+    Overview(LocationService locations, NextPeriods next, AccuracyService accuracy) {
+        this.locations = locations;
+        this.next = next;
+        this.accuracy = accuracy;
+    }
+
+    /** Which locations to show. */
+    public enum Show {
+        ALL("all locations"), FLAGGED("with an open drift flag"), NO_FORECAST("without a forecast yet"),
+        ACTIVE("active only"), CLOSED("closed only");
+
+        private final String label;
+
+        Show(String label) {
+            this.label = label;
+        }
+
+        public String label() {
+            return label;
+        }
+
+        public String param() {
+            return name().toLowerCase(Locale.ROOT).replace('_', '-');
+        }
+
+        static Show of(String s) {
+            for (Show v : values()) {
+                if (v.param().equalsIgnoreCase(s == null ? "" : s.trim())) {
+                    return v;
+                }
+            }
+            return ALL;
+        }
+    }
+
+    /** Sortable columns. */
+    public enum Sort {
+        CODE("Location"), NAME("Name"), ERROR("Last period: actual vs forecast"),
+        NEXT("Next period forecast (80% range)"), MODEL("Model"), FLAGS("Drift");
+
+        private final String label;
+
+        Sort(String label) {
+            this.label = label;
+        }
+
+        public String label() {
+            return label;
+        }
+
+        public boolean numeric() {
+            return this == ERROR || this == NEXT;
+        }
+
+        public String param() {
+            return name().toLowerCase(Locale.ROOT);
+        }
+
+        static Sort of(String s) {
+            for (Sort v : values()) {
+                if (v.param().equalsIgnoreCase(s == null ? "" : s.trim())) {
+                    return v;
+                }
+            }
+            return CODE;
+        }
+    }
+
+    /** What the user asked for: search text, filter, sort column and direction, 1-based page. */
+    public record Query(String search, Show show, Sort sort, boolean descending, int page) {
+
+        public static Query of(String search, String show, String sort, String dir, Integer page) {
+            return new Query(search == null ? "" : search.trim(), Show.of(show), Sort.of(sort),
+                    "desc".equalsIgnoreCase(dir), page == null || page < 1 ? 1 : page);
+        }
+    }
+
+    /** One location's line. {@code glance} and {@code next} are null until the series has them. */
+    public record Row(Location location, Glance glance, Next next, List<DriftFlag> flags) {
+
+        /** Absolute error of the last scored period in percent of its actual, or NaN. */
+        public double absErrorPct() {
+            return glance == null ? Double.NaN : Math.abs(glance.lastErrorPct());
+        }
+
+        /** SVG polyline points of the recent absolute % errors in an 80 × 20 box (higher = worse). */
+        public String trendPoints() {
+            if (glance == null || glance.recentApe().length < 2) {
+                return "";
+            }
+            return Sparkline.points(glance.recentApe(), 80, 20);
+        }
+
+        /** The recent absolute % errors as words, for screen readers and the tooltip. */
+        public String trendText() {
+            if (glance == null || glance.recentApe().length == 0) {
+                return "";
+            }
+            return "Recent absolute errors, oldest first: " + java.util.Arrays.stream(glance.recentApe())
+                    .mapToObj(v -> Double.isNaN(v) ? "n/a" : String.format(Locale.ROOT, "%.1f%%", v))
+                    .collect(Collectors.joining(", "));
+        }
+    }
+
+    /**
+     * Chain total of one currency and next period: the sum of the point forecasts, and an 80% range
+     * from the sum of the locations' bounds (cautious: exact if locations move together, wider than
+     * needed if they vary independently). Last period: the sum of actuals against the sum of what
+     * was forecast for them, over the locations scored for that period.
+     */
+    public record Total(String currency, String granularity, LocalDate period, int locations, double forecast,
+            double lo80, double hi80, LocalDate lastPeriod, int scored, double lastActual, double lastForecast) {
+
+        public double lastErrorPct() {
+            return lastActual == 0 ? Double.NaN : 100 * (lastActual - lastForecast) / lastActual;
+        }
+    }
+
+    /** One page of rows, the totals over every filtered row, and counts for the pager. */
+    public record Page(Query query, List<Row> rows, List<Total> totals, int matching, int allLocations, int page,
+            int pages) {
+
+        public int firstIndex() {
+            return matching == 0 ? 0 : (page - 1) * PAGE_SIZE + 1;
+        }
+
+        public int lastIndex() {
+            return Math.min(matching, page * PAGE_SIZE);
+        }
+    }
+
+    @Transactional(readOnly = true)
+    public Page page(Query query) {
+        String measure = FigureRules.DEFAULT_MEASURE;
+        List<Location> all = locations.all();
+        Map<Long, Next> nexts = next.of(measure);
+        Map<Long, Glance> glances = accuracy.glances(measure);
+        Map<Long, List<DriftFlag>> flags = accuracy.flags(null, true).stream()
+                .filter(f -> f.measure().equals(measure))
+                .collect(Collectors.groupingBy(DriftFlag::locationId));
+        String needle = query.search().toLowerCase(Locale.ROOT);
+        List<Row> rows = new ArrayList<>();
+        for (Location l : all) {
+            Row r = new Row(l, glances.get(l.getId()), nexts.get(l.getId()), flags.getOrDefault(l.getId(), List.of()));
+            if (matches(r, query.show()) && (needle.isEmpty() || l.getCode().toLowerCase(Locale.ROOT).contains(needle)
+                    || l.getName().toLowerCase(Locale.ROOT).contains(needle))) {
+                rows.add(r);
+            }
+        }
+        rows.sort(comparator(query.sort(), query.descending()));
+        int pages = Math.max(1, (rows.size() + PAGE_SIZE - 1) / PAGE_SIZE);
+        int page = Math.min(query.page(), pages);
+        List<Row> shown = rows.subList((page - 1) * PAGE_SIZE, Math.min(rows.size(), page * PAGE_SIZE));
+        return new Page(query, List.copyOf(shown), totals(rows), rows.size(), all.size(), page, pages);
+    }
+
+    private static boolean matches(Row r, Show show) {
+        return switch (show) {
+            case ALL -> true;
+            case FLAGGED -> !r.flags().isEmpty();
+            case NO_FORECAST -> r.next() == null;
+            case ACTIVE -> r.location().isActive();
+            case CLOSED -> !r.location().isActive();
+        };
+    }
+
+    /** Rows without the sorted value go last in either direction; ties fall back to the code. */
+    private static Comparator<Row> comparator(Sort sort, boolean descending) {
+        Comparator<Row> byCode = Comparator.comparing(r -> r.location().getCode());
+        Comparator<Row> primary = switch (sort) {
+            case CODE -> byCode;
+            case NAME -> Comparator.comparing(r -> r.location().getName().toLowerCase(Locale.ROOT));
+            case ERROR -> nullsLast(r -> Double.isNaN(r.absErrorPct()) ? null : r.absErrorPct(), descending);
+            case NEXT -> nullsLast(r -> r.next() == null ? null : r.next().forecast(), descending);
+            case MODEL -> nullsLast(r -> r.next() == null ? null : r.next().model().toLowerCase(Locale.ROOT), descending);
+            case FLAGS -> Comparator.comparingInt(r -> r.flags().size());
+        };
+        if (sort != Sort.ERROR && sort != Sort.NEXT && sort != Sort.MODEL && descending) {
+            primary = primary.reversed();
+        }
+        return primary.thenComparing(byCode);
+    }
+
+    private static <T extends Comparable<T>> Comparator<Row> nullsLast(Function<Row, T> key, boolean descending) {
+        Comparator<T> order = descending ? Comparator.<T>reverseOrder() : Comparator.<T>naturalOrder();
+        return Comparator.comparing(key, Comparator.nullsLast(order));
+    }
+
+    private static List<Total> totals(List<Row> rows) {
+        record Key(String currency, String granularity, LocalDate period) {
+        }
+        Map<Key, List<Row>> groups = new LinkedHashMap<>();
+        rows.stream().filter(r -> r.next() != null)
+                .sorted(Comparator.comparing((Row r) -> r.location().getCurrency())
+                        .thenComparing(r -> r.next().granularity()).thenComparing(r -> r.next().period()))
+                .forEach(r -> groups.computeIfAbsent(new Key(r.location().getCurrency(), r.next().granularity(),
+                        r.next().period()), k -> new ArrayList<>()).add(r));
+        List<Total> out = new ArrayList<>();
+        groups.forEach((k, group) -> {
+            double f = 0;
+            double lo = 0;
+            double hi = 0;
+            for (Row r : group) {
+                f += r.next().forecast();
+                lo += r.next().lo80();
+                hi += r.next().hi80();
+            }
+            LocalDate last = group.stream().filter(r -> r.glance() != null).map(r -> r.glance().lastPeriod())
+                    .max(Comparator.naturalOrder()).orElse(null);
+            int scored = 0;
+            double actual = 0;
+            double forecast = 0;
+            for (Row r : group) {
+                if (r.glance() != null && r.glance().lastPeriod().equals(last)) {
+                    scored++;
+                    actual += r.glance().lastActual();
+                    forecast += r.glance().lastForecast();
+                }
+            }
+            out.add(new Total(k.currency(), k.granularity(), k.period(), group.size(), f, lo, hi, last, scored, actual,
+                    forecast));
+        });
+        return out;
+    }
+}

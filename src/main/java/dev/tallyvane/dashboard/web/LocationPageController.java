@@ -1,0 +1,114 @@
+package dev.tallyvane.dashboard.web;
+
+import dev.tallyvane.dashboard.LocationCharts;
+import dev.tallyvane.dashboard.LocationCharts.AccuracyChart;
+import dev.tallyvane.dashboard.LocationCharts.ForecastChart;
+import dev.tallyvane.dashboard.LocationPage;
+import dev.tallyvane.engine.CandidateSet;
+import dev.tallyvane.engine.evaluation.Metric;
+import dev.tallyvane.forecasting.RefitQueue;
+import dev.tallyvane.forecasting.SettingsService;
+import dev.tallyvane.intake.FigureRules;
+import dev.tallyvane.location.Location;
+import dev.tallyvane.location.LocationService;
+import dev.tallyvane.location.web.LocationForm;
+import dev.tallyvane.system.InvalidRequest;
+import java.security.Principal;
+import java.util.Map;
+import java.util.Optional;
+import org.springframework.stereotype.Controller;
+import org.springframework.ui.Model;
+import org.springframework.web.bind.annotation.GetMapping;
+import org.springframework.web.bind.annotation.PathVariable;
+import org.springframework.web.bind.annotation.PostMapping;
+import org.springframework.web.bind.annotation.ResponseBody;
+import org.springframework.web.servlet.mvc.support.RedirectAttributes;
+
+/**
+ * A location's page: its forecast drawn and tabled, the leaderboard with the reason for the choice,
+ * accuracy over time and by horizon, flags, figures, and (for owners) its details and forecast
+ * settings. The charts read their numbers from {@code charts.json}.
+ */
+@Controller
+class LocationPageController {
+
+    private final LocationService locations;
+    private final LocationPage page;
+    private final LocationCharts charts;
+    private final SettingsService settings;
+    private final RefitQueue queue;
+
+    LocationPageController(LocationService locations, LocationPage page, LocationCharts charts,
+            SettingsService settings, RefitQueue queue) {
+        this.locations = locations;
+        this.page = page;
+        this.charts = charts;
+        this.settings = settings;
+        this.queue = queue;
+    }
+
+    @GetMapping("/locations/{code}")
+    String detail(@PathVariable String code, Model model) {
+        Location l = locations.byCode(code);
+        fill(model, l, details(l), null);
+        return "locations/detail";
+    }
+
+    /** Numbers of both charts. */
+    record Charts(Optional<ForecastChart> forecast, AccuracyChart accuracy) {
+    }
+
+    @GetMapping(value = "/locations/{code}/charts.json", produces = "application/json")
+    @ResponseBody
+    Charts charts(@PathVariable String code) {
+        Location l = locations.byCode(code);
+        return new Charts(charts.forecast(l), charts.accuracy(l));
+    }
+
+    @PostMapping("/locations/{code}")
+    String update(@PathVariable String code, LocationForm form, Model model) {
+        try {
+            locations.update(code, form.details());
+            return "redirect:/locations/" + locations.byCode(code).getCode() + "?saved";
+        } catch (InvalidRequest e) {
+            Location l = locations.byCode(code);
+            fill(model, l, form, null);
+            model.addAttribute("problems", e.problems());
+            return "locations/detail";
+        }
+    }
+
+    @PostMapping("/locations/{code}/settings")
+    String saveSettings(@PathVariable String code, SettingsForm form, Principal user, Model model,
+            RedirectAttributes redirect) {
+        Location l = locations.byCode(code);
+        try {
+            SettingsForm.Parsed p = form.parse();
+            settings.saveWithCalendar(l.getId(), FigureRules.DEFAULT_MEASURE, p.input(), p.closed(), p.holidays(),
+                    user.getName());
+        } catch (InvalidRequest e) {
+            fill(model, l, details(l), form);
+            model.addAttribute("settingsProblems", e.problems());
+            return "locations/detail";
+        }
+        queue.refitNow(l.getId());
+        redirect.addFlashAttribute("settingsSaved", true);
+        return "redirect:/locations/" + l.getCode() + "#settings";
+    }
+
+    private static LocationForm details(Location l) {
+        return new LocationForm(l.getCode(), l.getName(), l.getTimeZone(), l.getCurrency(), l.getOpenedOn(),
+                l.getStatus().name());
+    }
+
+    private void fill(Model model, Location l, LocationForm form, SettingsForm settingsForm) {
+        model.addAttribute("location", l);
+        model.addAttribute("form", form);
+        model.addAttribute("page", page.of(l));
+        model.addAttribute("settingsForm", settingsForm != null ? settingsForm
+                : SettingsForm.of(settings.settings(l.getId(), FigureRules.DEFAULT_MEASURE), settings.calendar(l.getId())));
+        Map<String, String> catalogue = CandidateSet.catalogue();
+        model.addAttribute("catalogue", catalogue);
+        model.addAttribute("metrics", Metric.values());
+    }
+}

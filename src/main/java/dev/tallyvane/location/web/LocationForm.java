@@ -1,0 +1,13 @@
+package dev.tallyvane.location.web;
+
+import dev.tallyvane.location.LocationDetails;
+import java.time.LocalDate;
+
+/** The location form (adding a location, or changing one on its page). */
+public record LocationForm(String code, String name, String timeZone, String currency, LocalDate openedOn,
+        String status) {
+
+    public LocationDetails details() {
+        return new LocationDetails(code, name, timeZone, currency, openedOn, status);
+    }
+}

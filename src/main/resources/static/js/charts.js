@@ -1,0 +1,126 @@
+/*
+ * Tallyvane location page charts (uPlot, served from the application's own WebJar).
+ * Reads the numbers from the element's data-src (JSON), draws them, and keeps the chart usable
+ * from the keyboard: focus the chart, then Left/Right move the read-out, Home/End jump to the ends.
+ * The page carries the same numbers as tables for screen readers and without JavaScript.
+ */
+(function () {
+    'use strict';
+
+    var forecastEl = document.getElementById('forecast-chart');
+    var accuracyEl = document.getElementById('accuracy-chart');
+    if (!forecastEl && !accuracyEl || typeof uPlot === 'undefined') {
+        return;
+    }
+    var src = (forecastEl || accuracyEl).getAttribute('data-src');
+    var lang = document.documentElement.lang || navigator.language;
+    var ink = '#1d2430', accent = '#1f5f8b', fittedColour = '#7a8595', earlierColour = '#a3271f';
+
+    function money(currency) {
+        var f;
+        try {
+            f = new Intl.NumberFormat(navigator.language || lang, {style: 'currency', currency: currency, maximumFractionDigits: 0});
+        } catch (e) {
+            f = new Intl.NumberFormat(navigator.language || lang, {maximumFractionDigits: 0});
+        }
+        return function (u, v) { return v == null ? '–' : f.format(v); };
+    }
+
+    function percent(u, v) { return v == null ? '–' : v.toFixed(1) + '%'; }
+
+    function width(el) { return Math.max(280, el.clientWidth || 600); }
+
+    function utc(ts) { return uPlot.tzDate(new Date(ts * 1e3), 'Etc/UTC'); }
+
+    /** Left/Right/Home/End move the cursor read-out across the points. */
+    function keyboard(el, u) {
+        var idx = -1;
+        el.addEventListener('keydown', function (ev) {
+            var n = u.data[0].length;
+            if (!n) { return; }
+            if (ev.key === 'ArrowRight') { idx = Math.min(n - 1, idx + 1); }
+            else if (ev.key === 'ArrowLeft') { idx = Math.max(0, idx < 0 ? n - 1 : idx - 1); }
+            else if (ev.key === 'Home') { idx = 0; }
+            else if (ev.key === 'End') { idx = n - 1; }
+            else { return; }
+            ev.preventDefault();
+            u.setCursor({left: u.valToPos(u.data[0][idx], 'x'), top: u.bbox.height / devicePixelRatio / 2});
+        });
+    }
+
+    function resizeWith(el, u, height) {
+        window.addEventListener('resize', function () { u.setSize({width: width(el), height: height}); });
+    }
+
+    function drawForecast(c) {
+        var fmt = money(c.currency);
+        var line = function (label, colour, w, dash) {
+            return {label: label, stroke: colour, width: w, dash: dash, value: fmt, spanGaps: false,
+                points: {show: c.x.length < 120}};
+        };
+        var bound = function (label) {
+            return {label: label, stroke: 'rgba(31,95,139,0.35)', width: 1, value: fmt, points: {show: false}};
+        };
+        var opts = {
+            width: width(forecastEl), height: 340, tzDate: utc,
+            series: [
+                {label: 'Period', value: '{YYYY}-{MM}-{DD}'},
+                line('Actual', ink, 2),
+                line('Fitted', fittedColour, 1.5, [4, 3]),
+                line('Earlier forecast', earlierColour, 1.5, [2, 2]),
+                line('Forecast', accent, 2.5),
+                bound('80% low'), bound('80% high'), bound('95% low'), bound('95% high')
+            ],
+            bands: [
+                {series: [8, 7], fill: 'rgba(31,95,139,0.10)'},
+                {series: [6, 5], fill: 'rgba(31,95,139,0.22)'}
+            ],
+            axes: [{}, {values: function (u, ticks) { return ticks.map(function (t) { return fmt(u, t); }); }, size: 80}]
+        };
+        var data = [c.x, c.actual, c.fitted, c.earlier, c.forecast, c.lo80, c.hi80, c.lo95, c.hi95];
+        var u = new uPlot(opts, data, forecastEl);
+        u.setSeries(3, {show: false});
+        keyboard(forecastEl, u);
+        resizeWith(forecastEl, u, 340);
+        var fitted = document.getElementById('show-fitted');
+        var earlier = document.getElementById('show-earlier');
+        if (fitted) { fitted.addEventListener('change', function () { u.setSeries(2, {show: fitted.checked}); }); }
+        if (earlier) { earlier.addEventListener('change', function () { u.setSeries(3, {show: earlier.checked}); }); }
+        forecastEl.setAttribute('data-points', String(c.x.length));
+        forecastEl.setAttribute('data-ready', 'true');
+    }
+
+    function drawAccuracy(a) {
+        var opts = {
+            width: width(accuracyEl), height: 200, tzDate: utc,
+            series: [
+                {label: 'Period', value: '{YYYY}-{MM}-{DD}'},
+                {label: 'MAPE (rolling)', stroke: accent, width: 2, value: percent}
+            ],
+            axes: [{}, {values: function (u, ticks) { return ticks.map(function (t) { return t + '%'; }); }}]
+        };
+        var u = new uPlot(opts, [a.x, a.mape], accuracyEl);
+        keyboard(accuracyEl, u);
+        resizeWith(accuracyEl, u, 200);
+        accuracyEl.setAttribute('data-points', String(a.x.length));
+        accuracyEl.setAttribute('data-ready', 'true');
+    }
+
+    fetch(src, {credentials: 'same-origin', headers: {'Accept': 'application/json'}})
+        .then(function (r) {
+            if (!r.ok) { throw new Error('HTTP ' + r.status); }
+            return r.json();
+        })
+        .then(function (d) {
+            if (forecastEl && d.forecast) { drawForecast(d.forecast); }
+            if (accuracyEl && d.accuracy && d.accuracy.x.length) { drawAccuracy(d.accuracy); }
+        })
+        .catch(function (e) {
+            [forecastEl, accuracyEl].forEach(function (el) {
+                if (el) {
+                    el.textContent = 'The chart could not be loaded (' + e.message + '); the table below has the numbers.';
+                    el.setAttribute('data-ready', 'error');
+                }
+            });
+        });
+}());

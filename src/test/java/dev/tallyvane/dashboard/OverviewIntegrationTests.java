@@ -1,0 +1,212 @@
+package dev.tallyvane.dashboard;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.awaitility.Awaitility.await;
+import static org.springframework.security.test.web.servlet.request.SecurityMockMvcRequestPostProcessors.csrf;
+import static org.springframework.security.test.web.servlet.request.SecurityMockMvcRequestPostProcessors.user;
+import static org.springframework.test.web.servlet.request.MockMvcRequestBuilders.get;
+import static org.springframework.test.web.servlet.request.MockMvcRequestBuilders.post;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.jsonPath;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.redirectedUrl;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.status;
+
+import dev.tallyvane.account.TokenService;
+import dev.tallyvane.app.TallyvaneApplication;
+import dev.tallyvane.forecasting.NextPeriods;
+import dev.tallyvane.forecasting.RefitService;
+import dev.tallyvane.forecasting.SettingsService;
+import dev.tallyvane.intake.FigureRules;
+import dev.tallyvane.location.Location;
+import dev.tallyvane.location.LocationDetails;
+import dev.tallyvane.location.LocationService;
+import dev.tallyvane.support.TestClockConfiguration;
+import java.time.Duration;
+import java.time.YearMonth;
+import java.util.List;
+import java.util.Locale;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.TestInstance;
+import org.springframework.beans.factory.annotation.Autowired;
+import org.springframework.boot.test.context.SpringBootTest;
+import org.springframework.boot.webmvc.test.autoconfigure.AutoConfigureMockMvc;
+import org.springframework.context.annotation.Import;
+import org.springframework.http.MediaType;
+import org.springframework.test.web.servlet.MockMvc;
+import org.springframework.test.web.servlet.request.RequestPostProcessor;
+
+/**
+ * The overview with 120 locations (three with forecasts): pages of 50, search, filters, sorting,
+ * the chain total, escaping of hostile names; the location page's chart data; and the settings form
+ * (owners only, every bad field named, nothing saved on error). Its own database (a context of its own).
+ */
+@SpringBootTest(classes = TallyvaneApplication.class, properties = "tallyvane.test.context=overview")
+@AutoConfigureMockMvc
+@Import(TestClockConfiguration.class)
+@TestInstance(TestInstance.Lifecycle.PER_CLASS)
+class OverviewIntegrationTests {
+
+    @Autowired
+    MockMvc mvc;
+    @Autowired
+    LocationService locations;
+    @Autowired
+    TokenService tokens;
+    @Autowired
+    RefitService refits;
+    @Autowired
+    NextPeriods next;
+    @Autowired
+    SettingsService settings;
+    @Autowired
+    dev.tallyvane.account.UserService users;
+
+    final RequestPostProcessor owner = user("olive").roles("OWNER");
+    final RequestPostProcessor bookkeeper = user("bea").roles("BOOKKEEPER");
+    final RequestPostProcessor viewer = user("vic").roles("VIEWER");
+
+    static final String HOSTILE = "<script>alert('x')</script> & \"Mill\"";
+
+    @BeforeAll
+    void chain() throws Exception {
+        dev.tallyvane.support.Users.ensure(users, "olive", dev.tallyvane.account.Role.OWNER);
+        for (int i = 1; i <= 120; i++) {
+            String name = i == 7 ? HOSTILE : i % 10 == 0 ? "Mill Road " + i : "Corner Shop " + i;
+            locations.create(new LocationDetails(String.format(Locale.ROOT, "L%03d", i), name, "Europe/Berlin", "EUR",
+                    null, null));
+        }
+        String token = tokens.create("overview test", null, "test").secret();
+        for (String code : List.of("L001", "L002", "L003")) {
+            int level = Integer.parseInt(code.substring(1)) * 1000;
+            StringBuilder json = new StringBuilder("{\"figures\":[");
+            for (YearMonth m = YearMonth.of(2023, 11); !m.isAfter(YearMonth.of(2026, 10)); m = m.plusMonths(1)) {
+                json.append(json.charAt(json.length() - 1) == '[' ? "" : ",").append(String.format(Locale.ROOT,
+                        "{\"location\":\"%s\",\"period\":\"%s\",\"amount\":%d}", code, m,
+                        level + 10 * (m.getMonthValue() % 4) + m.getYear() % 3));
+            }
+            mvc.perform(post("/api/v1/figures").header("Authorization", "Bearer " + token)
+                    .contentType(MediaType.APPLICATION_JSON).content(json.append("]}").toString()))
+                    .andExpect(status().isOk());
+        }
+        await().atMost(Duration.ofSeconds(60)).pollInterval(Duration.ofMillis(100)).until(() -> next.of(
+                FigureRules.DEFAULT_MEASURE).size() == 3);
+    }
+
+    private String page(String query, RequestPostProcessor who) throws Exception {
+        return mvc.perform(get(java.net.URI.create("/" + query)).with(who)).andExpect(status().isOk()).andReturn().getResponse()
+                .getContentAsString();
+    }
+
+    private static List<String> codes(String html) {
+        return java.util.regex.Pattern.compile("<a href=\"/locations/(L\\d{3})\">").matcher(html).results()
+                .map(m -> m.group(1)).toList();
+    }
+
+    @Test
+    void pagesOfFiftyWithSearchFilterAndSort() throws Exception {
+        String first = page("", viewer);
+        assertThat(first).contains("Showing 1–50 of 120").contains("Page 1 of 3");
+        assertThat(codes(first)).hasSize(50).startsWith("L001", "L002").endsWith("L050");
+        String third = page("?page=3", viewer);
+        assertThat(third).contains("Showing 101–120 of 120");
+        assertThat(codes(third)).hasSize(20).endsWith("L120");
+        assertThat(page("?page=99", viewer)).contains("Showing 101–120 of 120"); // past the end: the last page
+        assertThat(page("?page=abc", viewer)).contains("Showing 1–50 of 120");  // nonsense: the first page
+
+        // search matches code or name, ignoring case
+        assertThat(codes(page("?q=mill%20road", viewer))).hasSize(12).contains("L010", "L120");
+        assertThat(codes(page("?q=l11", viewer))).containsExactly("L110", "L111", "L112", "L113", "L114", "L115",
+                "L116", "L117", "L118", "L119");
+
+        // filters
+        assertThat(page("?show=no-forecast", viewer)).contains("Showing 1–50 of 117");
+        assertThat(page("?show=flagged", viewer)).contains("No location matches this search");
+
+        // sort by next period's forecast, largest first: the three with forecasts lead, the rest follow by code
+        List<String> byNext = codes(page("?sort=next&dir=desc", viewer));
+        assertThat(byNext.subList(0, 4)).containsExactly("L003", "L002", "L001", "L004");
+        assertThat(codes(page("?sort=code&dir=desc", viewer)).get(0)).isEqualTo("L120");
+        assertThat(codes(page("?sort=name&dir=asc", viewer)).get(0)).isEqualTo("L007"); // '<' sorts first
+    }
+
+    @Test
+    void chainTotalIsTheSumOfTheNextForecasts() throws Exception {
+        double sum = next.of(FigureRules.DEFAULT_MEASURE).values().stream().mapToDouble(NextPeriods.Next::forecast).sum();
+        String html = mvc.perform(get("/").with(viewer).header("Accept-Language", "en-GB")).andReturn().getResponse()
+                .getContentAsString();
+        assertThat(html).contains("Chain total (3 locations, EUR)");
+        String expected = java.text.NumberFormat.getCurrencyInstance(Locale.UK) instanceof java.text.DecimalFormat f
+                ? format(sum) : null;
+        assertThat(html).contains(expected);
+    }
+
+    private static String format(double v) {
+        java.text.NumberFormat f = java.text.NumberFormat.getCurrencyInstance(Locale.UK);
+        f.setCurrency(java.util.Currency.getInstance("EUR"));
+        f.setMaximumFractionDigits(0);
+        return f.format(v);
+    }
+
+    @Test
+    void hostileNamesAreEscaped() throws Exception {
+        String html = page("?q=script", viewer);
+        assertThat(html).doesNotContain("<script>alert").contains("&lt;script&gt;alert(&#39;x&#39;)&lt;/script&gt;");
+        String detail = mvc.perform(get("/locations/L007").with(owner)).andExpect(status().isOk()).andReturn()
+                .getResponse().getContentAsString();
+        assertThat(detail).doesNotContain("<script>alert").contains("&lt;script&gt;");
+    }
+
+    @Test
+    void chartDataAndPageForALocationWithAForecast() throws Exception {
+        Location l = locations.byCode("L002");
+        int points = refits.current(l.getId(), FigureRules.DEFAULT_MEASURE).orElseThrow().points().size();
+        mvc.perform(get("/locations/L002/charts.json").with(viewer)).andExpect(status().isOk())
+                .andExpect(jsonPath("$.forecast.currency").value("EUR"))
+                .andExpect(jsonPath("$.forecast.granularity").value("month"))
+                .andExpect(jsonPath("$.forecast.x.length()").value(36 + points))
+                .andExpect(jsonPath("$.forecast.actual[0]").value(2000 + 10 * (11 % 4) + 2023 % 3))
+                .andExpect(jsonPath("$.forecast.forecast[0]").isEmpty())
+                .andExpect(jsonPath("$.forecast.forecast[36]").isNumber())
+                .andExpect(jsonPath("$.forecast.hi95[36]").isNumber());
+        String html = mvc.perform(get("/locations/L002").with(viewer)).andReturn().getResponse().getContentAsString();
+        assertThat(html).contains("id=\"leaderboard\"").contains("class=\"chosen\"").contains("was chosen:")
+                .contains("Forecasts are estimates").doesNotContain("id=\"settings\""); // settings: owners only
+        String empty = mvc.perform(get("/locations/L050").with(viewer)).andReturn().getResponse().getContentAsString();
+        assertThat(empty).contains("No forecast yet").contains("at least two completed periods");
+    }
+
+    @Test
+    void settingsFormNamesEveryBadFieldAndSavesNothingUntilCorrect() throws Exception {
+        Location l = locations.byCode("L003");
+        mvc.perform(post("/locations/L003/settings").with(viewer).with(csrf()).param("horizon", "6"))
+                .andExpect(status().isForbidden());
+        mvc.perform(post("/locations/L003/settings").with(bookkeeper).with(csrf()).param("horizon", "6"))
+                .andExpect(status().isForbidden());
+        mvc.perform(post("/locations/L003/settings").with(owner).param("horizon", "6")) // no CSRF token
+                .andExpect(status().isForbidden());
+        String html = mvc.perform(post("/locations/L003/settings").with(owner).with(csrf())
+                        .param("granularity", "fortnight").param("horizon", "500").param("metric", "mse")
+                        .param("candidates", "poly1", "nonsense").param("weights", "0.5, x")
+                        .param("closedDays", "2026-12-25\n25.12.2026"))
+                .andExpect(status().isOk()).andReturn().getResponse().getContentAsString();
+        assertThat(html).contains("The settings were not saved").contains("weights").contains("entry 2 (&#39;x&#39;)")
+                .contains("closedDays").contains("entry 2 (&#39;25.12.2026&#39;)");
+        html = mvc.perform(post("/locations/L003/settings").with(owner).with(csrf())
+                        .param("granularity", "fortnight").param("horizon", "500").param("candidates", "nonsense"))
+                .andReturn().getResponse().getContentAsString();
+        assertThat(html).contains("granularity").contains("horizon").contains("unknown candidate");
+        assertThat(settings.settings(l.getId(), FigureRules.DEFAULT_MEASURE).horizon()).isNull();
+        assertThat(settings.calendar(l.getId())).isEmpty();
+
+        mvc.perform(post("/locations/L003/settings").with(owner).with(csrf()).param("granularity", "month")
+                        .param("horizon", "6").param("metric", "mae").param("candidates", "poly1", "naive")
+                        .param("closedDays", "2026-12-25").param("holidays", "2026-12-24"))
+                .andExpect(redirectedUrl("/locations/L003#settings"));
+        var saved = settings.settings(l.getId(), FigureRules.DEFAULT_MEASURE);
+        assertThat(saved.horizon()).isEqualTo(6);
+        assertThat(saved.candidates()).containsExactlyInAnyOrder("poly1", "naive");
+        assertThat(settings.calendar(l.getId())).hasSize(2);
+        await().atMost(Duration.ofSeconds(30)).until(() -> refits.current(l.getId(), FigureRules.DEFAULT_MEASURE)
+                .map(f -> f.horizon() == 6 && f.metric().equals("MAE")).orElse(false));
+    }
+}
