@@ -81,7 +81,9 @@ class SecurityConfiguration {
 
     @Bean
     @Order(2)
-    SecurityFilterChain web(HttpSecurity http, UserService users) throws Exception {
+    SecurityFilterChain web(HttpSecurity http, UserService users, java.time.Clock clock,
+            @org.springframework.beans.factory.annotation.Value("${tallyvane.security.login-attempts-per-minute:20}")
+            int attemptsPerMinute) throws Exception {
         http.authorizeHttpRequests(a -> a
                         .requestMatchers("/login", "/setup", "/css/**", "/js/**", "/img/**", "/webjars/**",
                                 "/favicon.ico", "/actuator/health", "/actuator/health/**", "/error", "/email/unsubscribe").permitAll()
@@ -94,6 +96,7 @@ class SecurityConfiguration {
                 .logout(l -> l.logoutSuccessUrl("/login?signedOut").permitAll())
                 .sessionManagement(s -> s.sessionFixation(f -> f.changeSessionId()))
                 .addFilterBefore(new SetupRedirect(users), UsernamePasswordAuthenticationFilter.class)
+                .addFilterBefore(new LoginThrottle(attemptsPerMinute, 60, clock), UsernamePasswordAuthenticationFilter.class)
                 .headers(h -> h
                         .contentSecurityPolicy(c -> c.policyDirectives("default-src 'self'; img-src 'self' data:; "
                                 + "style-src 'self'; script-src 'self'; object-src 'none'; base-uri 'self'; "

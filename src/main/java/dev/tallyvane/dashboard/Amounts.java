@@ -13,20 +13,41 @@ import org.springframework.stereotype.Component;
 @Component("amounts")
 public class Amounts {
 
+    /** Formats by locale and currency, built once (building one is slow); each use works on a clone. */
+    private final java.util.concurrent.ConcurrentMap<String, NumberFormat> formats =
+            new java.util.concurrent.ConcurrentHashMap<>();
+
+    private NumberFormat format(String currency, int decimals) {
+        Locale locale = locale();
+        String key = locale.toLanguageTag() + "|" + currency + "|" + decimals;
+        if (formats.size() > 1000) {
+            formats.clear(); // the locale comes from the browser: never let odd headers grow this without bound
+        }
+        NumberFormat prototype = formats.computeIfAbsent(key, k -> {
+            NumberFormat f;
+            if (currency == null) {
+                f = NumberFormat.getNumberInstance(locale);
+            } else {
+                f = NumberFormat.getCurrencyInstance(locale);
+                try {
+                    f.setCurrency(Currency.getInstance(currency));
+                } catch (IllegalArgumentException e) {
+                    f = NumberFormat.getNumberInstance(locale);
+                }
+            }
+            f.setMaximumFractionDigits(decimals);
+            f.setMinimumFractionDigits(decimals);
+            return f;
+        });
+        return (NumberFormat) prototype.clone();
+    }
+
     /** Whole currency units, e.g. "€12,340" or "12.340 €"; a dash for a missing value. */
     public String money(Double value, String currency) {
         if (value == null || !Double.isFinite(value)) {
             return "–";
         }
-        NumberFormat f = NumberFormat.getCurrencyInstance(locale());
-        try {
-            f.setCurrency(Currency.getInstance(currency));
-        } catch (IllegalArgumentException | NullPointerException e) {
-            f = NumberFormat.getNumberInstance(locale());
-        }
-        f.setMaximumFractionDigits(0);
-        f.setMinimumFractionDigits(0);
-        return f.format(value);
+        return format(currency == null ? "" : currency, 0).format(value);
     }
 
     /** A range "lo – hi" in the currency. */
@@ -39,10 +60,7 @@ public class Amounts {
         if (value == null || !Double.isFinite(value)) {
             return "–";
         }
-        NumberFormat f = NumberFormat.getNumberInstance(locale());
-        f.setMaximumFractionDigits(1);
-        f.setMinimumFractionDigits(1);
-        return (signed && value > 0 ? "+" : "") + f.format(value) + "%";
+        return (signed && value > 0 ? "+" : "") + format(null, 1).format(value) + "%";
     }
 
     /** A plain number with the given decimals; a dash for NaN. */
@@ -50,10 +68,7 @@ public class Amounts {
         if (value == null || !Double.isFinite(value)) {
             return "–";
         }
-        NumberFormat f = NumberFormat.getNumberInstance(locale());
-        f.setMaximumFractionDigits(decimals);
-        f.setMinimumFractionDigits(decimals);
-        return f.format(value);
+        return format(null, decimals).format(value);
     }
 
     private static Locale locale() {

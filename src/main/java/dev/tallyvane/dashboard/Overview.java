@@ -32,14 +32,65 @@ public class Overview {
     /** Rows per page. */
     public static final int PAGE_SIZE = 50;
 
+    /**
+     * Detects any change the overview shows: a new forecast (which also rewrites the accuracy
+     * glance and re-evaluates flags), a flag raised, cleared or acknowledged, a location added or
+     * changed (its optimistic-lock version). Cheap: counts and maxima over small tables or keys.
+     */
+    private static final String VERSION = "select (select coalesce(max(id), 0) from issued_forecast), "
+            + "(select count(*) from drift_flag), (select count(*) from drift_flag where cleared_at is null), "
+            + "(select count(*) from drift_flag where acknowledged_at is not null), (select count(*) from location), "
+            + "(select coalesce(sum(version), 0) from location), (select coalesce(max(id), 0) from location)";
+
     private final LocationService locations;
     private final NextPeriods next;
     private final AccuracyService accuracy;
+    private final org.springframework.jdbc.core.JdbcTemplate jdbc;
 
-    Overview(LocationService locations, NextPeriods next, AccuracyService accuracy) {
+    /** The rows of every location, by code, with the data version they were read at. */
+    private record Snapshot(List<Long> version, List<Row> rows) {
+    }
+
+    private volatile Snapshot snapshot = new Snapshot(List.of(), List.of());
+
+    Overview(LocationService locations, NextPeriods next, AccuracyService accuracy,
+            org.springframework.jdbc.core.JdbcTemplate jdbc) {
         this.locations = locations;
         this.next = next;
         this.accuracy = accuracy;
+        this.jdbc = jdbc;
+    }
+
+    /**
+     * Every location's row, read again only when the data version changed since the last read (so
+     * many people opening the overview cost one small query each, not a read of every table).
+     */
+    private List<Row> allRows() {
+        List<Long> version = jdbc.queryForObject(VERSION, (rs, i) -> {
+            List<Long> v = new ArrayList<>();
+            for (int c = 1; c <= 7; c++) {
+                v.add(rs.getLong(c));
+            }
+            return v;
+        });
+        Snapshot s = snapshot;
+        if (s.version().equals(version)) {
+            return s.rows();
+        }
+        String measure = FigureRules.DEFAULT_MEASURE;
+        Map<Long, Next> nexts = next.of(measure);
+        Map<Long, Glance> glances = accuracy.glances(measure);
+        Map<Long, List<DriftFlag>> flags = accuracy.flags(null, true).stream()
+                .filter(f -> f.measure().equals(measure))
+                .collect(Collectors.groupingBy(DriftFlag::locationId));
+        List<Row> rows = new ArrayList<>();
+        for (Location l : locations.all()) {
+            rows.add(Row.of(l, glances.get(l.getId()), nexts.get(l.getId()), flags.getOrDefault(l.getId(), List.of())));
+        }
+        rows.sort(Comparator.comparing(r -> r.location().getCode()));
+        List<Row> frozen = List.copyOf(rows);
+        snapshot = new Snapshot(version, frozen);
+        return frozen;
     }
 
     /** Which locations to show. */
@@ -113,30 +164,32 @@ public class Overview {
         }
     }
 
-    /** One location's line. {@code glance} and {@code next} are null until the series has them. */
-    public record Row(Location location, Glance glance, Next next, List<DriftFlag> flags) {
+    /**
+     * One location's line. {@code glance} and {@code next} are null until the series has them; the
+     * trend line and its words are worked out once per data version (rows are kept between requests).
+     *
+     * @param trendPoints SVG polyline points of the recent absolute % errors in an 80 × 20 box (higher
+     *                    = worse), empty with fewer than two
+     * @param trendText   the same errors in words, for screen readers and the tooltip
+     * @param flagLabels  each open flag's signal in words, in the order of {@code flags}
+     */
+    public record Row(Location location, Glance glance, Next next, List<DriftFlag> flags, String trendPoints,
+            String trendText, List<String> flagLabels) {
+
+        static Row of(Location location, Glance glance, Next next, List<DriftFlag> flags) {
+            String points = glance == null || glance.recentApe().length < 2 ? ""
+                    : Sparkline.points(glance.recentApe(), 80, 20);
+            String text = glance == null || glance.recentApe().length == 0 ? ""
+                    : "Recent absolute errors, oldest first: " + java.util.Arrays.stream(glance.recentApe())
+                            .mapToObj(v -> Double.isNaN(v) ? "n/a" : String.format(Locale.ROOT, "%.1f%%", v))
+                            .collect(Collectors.joining(", "));
+            return new Row(location, glance, next, List.copyOf(flags), points, text, flags.stream()
+                    .map(f -> f.signal().name().toLowerCase(Locale.ROOT).replace('_', ' ')).toList());
+        }
 
         /** Absolute error of the last scored period in percent of its actual, or NaN. */
         public double absErrorPct() {
             return glance == null ? Double.NaN : Math.abs(glance.lastErrorPct());
-        }
-
-        /** SVG polyline points of the recent absolute % errors in an 80 × 20 box (higher = worse). */
-        public String trendPoints() {
-            if (glance == null || glance.recentApe().length < 2) {
-                return "";
-            }
-            return Sparkline.points(glance.recentApe(), 80, 20);
-        }
-
-        /** The recent absolute % errors as words, for screen readers and the tooltip. */
-        public String trendText() {
-            if (glance == null || glance.recentApe().length == 0) {
-                return "";
-            }
-            return "Recent absolute errors, oldest first: " + java.util.Arrays.stream(glance.recentApe())
-                    .mapToObj(v -> Double.isNaN(v) ? "n/a" : String.format(Locale.ROOT, "%.1f%%", v))
-                    .collect(Collectors.joining(", "));
         }
     }
 
@@ -169,17 +222,11 @@ public class Overview {
 
     @Transactional(readOnly = true)
     public Page page(Query query) {
-        String measure = FigureRules.DEFAULT_MEASURE;
-        List<Location> all = locations.all();
-        Map<Long, Next> nexts = next.of(measure);
-        Map<Long, Glance> glances = accuracy.glances(measure);
-        Map<Long, List<DriftFlag>> flags = accuracy.flags(null, true).stream()
-                .filter(f -> f.measure().equals(measure))
-                .collect(Collectors.groupingBy(DriftFlag::locationId));
+        List<Row> all = allRows();
         String needle = query.search().toLowerCase(Locale.ROOT);
         List<Row> rows = new ArrayList<>();
-        for (Location l : all) {
-            Row r = new Row(l, glances.get(l.getId()), nexts.get(l.getId()), flags.getOrDefault(l.getId(), List.of()));
+        for (Row r : all) {
+            Location l = r.location();
             if (matches(r, query.show()) && (needle.isEmpty() || l.getCode().toLowerCase(Locale.ROOT).contains(needle)
                     || l.getName().toLowerCase(Locale.ROOT).contains(needle))) {
                 rows.add(r);

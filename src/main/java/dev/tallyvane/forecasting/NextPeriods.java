@@ -25,9 +25,9 @@ public class NextPeriods {
     public Map<Long, Next> of(String measure) {
         Map<Long, Next> out = new HashMap<>();
         jdbc.query("select f.location_id, p.period_start, f.granularity, p.forecast, p.lo80, p.hi80, f.chosen_name "
-                + "from issued_forecast f join issued_forecast_point p on p.issued_id = f.id and p.step = 1 "
-                + "where f.measure = ? and f.id = (select max(f2.id) from issued_forecast f2 where "
-                + "f2.location_id = f.location_id and f2.measure = f.measure)", rs -> {
+                + "from (select max(id) as id from issued_forecast where measure = ? group by location_id) c "
+                + "join issued_forecast f on f.id = c.id "
+                + "join issued_forecast_point p on p.issued_id = f.id and p.step = 1", rs -> {
                     out.put(rs.getLong(1), new Next(rs.getObject(2, LocalDate.class), rs.getString(3).toLowerCase(
                             java.util.Locale.ROOT), rs.getDouble(4), rs.getDouble(5), rs.getDouble(6), rs.getString(7)));
                 }, measure);

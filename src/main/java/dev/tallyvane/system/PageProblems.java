@@ -23,6 +23,20 @@ class PageProblems {
         return mv;
     }
 
+    /** The database cannot be reached: say so, and that nothing was saved, instead of a bare error. */
+    @ExceptionHandler({org.springframework.dao.DataAccessResourceFailureException.class,
+            org.springframework.dao.TransientDataAccessException.class,
+            org.springframework.transaction.CannotCreateTransactionException.class})
+    ModelAndView databaseUnavailable(Exception e, jakarta.servlet.http.HttpServletResponse response) {
+        ModelAndView mv = new ModelAndView("error/problem");
+        mv.setStatus(HttpStatusCode.valueOf(503));
+        response.setHeader("Retry-After", "10");
+        mv.addObject("title", "Temporarily unavailable");
+        mv.addObject("message", "The database cannot be reached just now, so nothing was saved. Please try again in "
+                + "a few seconds.");
+        return mv;
+    }
+
     @ExceptionHandler(InvalidRequest.class)
     ModelAndView invalid(InvalidRequest e) {
         ModelAndView mv = new ModelAndView("error/problem");

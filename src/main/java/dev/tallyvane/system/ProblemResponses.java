@@ -83,6 +83,21 @@ public class ProblemResponses {
         return problem(HttpStatus.FORBIDDEN, "forbidden", "Not allowed", e.getMessage());
     }
 
+    /**
+     * The database cannot be reached (restarting, network, pool exhausted): 503 with Retry-After, so
+     * a till retries; nothing was saved because the transaction never committed.
+     */
+    @ExceptionHandler({org.springframework.dao.DataAccessResourceFailureException.class,
+            org.springframework.dao.TransientDataAccessException.class,
+            org.springframework.transaction.CannotCreateTransactionException.class})
+    ResponseEntity<ProblemDetail> databaseUnavailable(Exception e, HttpServletRequest request) {
+        log.warn("database unavailable on {} {}: {}", request.getMethod(), request.getRequestURI(), rootMessage(e));
+        return ResponseEntity.status(HttpStatus.SERVICE_UNAVAILABLE).header("Retry-After", "10").body(problem(
+                HttpStatus.SERVICE_UNAVAILABLE, "database-unavailable", "Temporarily unavailable",
+                "The database cannot be reached just now; nothing was saved. Send the same request again in a few "
+                        + "seconds (with the same Idempotency-Key, if you used one)."));
+    }
+
     @ExceptionHandler(Exception.class)
     ResponseEntity<ProblemDetail> unexpected(Exception e, HttpServletRequest request) {
         log.error("unexpected failure on {} {}", request.getMethod(), request.getRequestURI(), e);

@@ -111,7 +111,7 @@ class DashboardLoadBench {
                 ThreadLocalRandom r = ThreadLocalRandom.current();
                 while (System.nanoTime() < end) {
                     String kind = kinds.get(r.nextInt(kinds.size()));
-                    int l = 1 + r.nextInt(1000);
+                    int l = r.nextInt(1000); // DailyChain codes are D0 … D999
                     String path = switch (kind) {
                         case "overview" -> "/?page=" + (1 + r.nextInt(20));
                         case "overview-sorted" -> "/?sort=error&dir=desc";

@@ -117,9 +117,9 @@ class NewcomerEndToEndTests {
                 "FERNHILL")) {
             assertThat(home).contains(code);
         }
-        assertThat(home).contains("80% range").contains("class=\"badge warn\"").doesNotContain("none yet");
+        assertThat(home).contains("80% range").contains("class=\"badge warn flag\"").doesNotContain("no forecast yet");
         String canalside = get(owner, "/locations/CANALSIDE");
-        assertThat(canalside).contains("Current forecast").contains("below forecast");
+        assertThat(canalside).contains("was chosen:").contains("id=\"forecast-chart\"").contains("below forecast");
         assertThat(get(owner, "/actuator/health")).contains("UP");
     }
 

@@ -143,7 +143,7 @@ class RefitOnArrivalIntegrationTests {
         dev.tallyvane.support.Users.ensure(users, "olive", dev.tallyvane.account.Role.OWNER);
         var owner = user("olive").roles("OWNER");
         mvc.perform(get("/locations/{c}", code).with(owner)).andExpect(status().isOk())
-                .andExpect(content().string(containsString("Current forecast")))
+                .andExpect(content().string(containsString("was chosen:")))
                 .andExpect(content().string(containsString("likely to fall in (80% and 95%)")))
                 .andExpect(content().string(containsString("Drift flags")))
                 .andExpect(content().string(containsString("above forecast")));

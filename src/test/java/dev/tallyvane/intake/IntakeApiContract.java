@@ -85,6 +85,67 @@ abstract class IntakeApiContract {
                 + "where l.code = ?", Long.class, code);
     }
 
+    /**
+     * Many tills posting the same week for the same location at once, with the same and with
+     * different values: every post is answered, each day keeps exactly one current value, the
+     * history is a clean chain (no two current rows, no repeated value, each revision superseded
+     * exactly when the next was recorded), and the current value is the newest revision's.
+     */
+    @Test
+    void concurrentPostsForTheSameDaysKeepOneConsistentHistory() throws Exception {
+        LocalDate first = LocalDate.of(2026, 11, 23);
+        int threads = 12;
+        int postsEach = 15;
+        java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newFixedThreadPool(threads);
+        java.util.concurrent.CountDownLatch start = new java.util.concurrent.CountDownLatch(1);
+        java.util.List<java.util.concurrent.Future<java.util.List<Integer>>> results = new java.util.ArrayList<>();
+        for (int t = 0; t < threads; t++) {
+            int seed = t;
+            results.add(pool.submit(() -> {
+                start.await();
+                java.util.Random r = new java.util.Random(seed);
+                java.util.List<Integer> statuses = new java.util.ArrayList<>();
+                for (int p = 0; p < postsEach; p++) {
+                    double base = 100 * (1 + r.nextInt(3)); // 100, 200 or 300: often the same as another till's
+                    statuses.add(mvc.perform(postFigures(dailyFigures(code, first, 7, base))).andReturn().getResponse()
+                            .getStatus());
+                }
+                return statuses;
+            }));
+        }
+        start.countDown();
+        for (var f : results) {
+            assertThat(f.get(120, java.util.concurrent.TimeUnit.SECONDS)).containsOnly(200);
+        }
+        pool.shutdown();
+
+        for (int d = 0; d < 7; d++) {
+            LocalDate day = first.plusDays(d);
+            java.util.List<java.util.Map<String, Object>> revisions = jdbc.queryForList("select amount, recorded_at, "
+                    + "superseded_at from figure_revision where location_id = ? and granularity = 'DAY' and "
+                    + "period_start = ? order by recorded_at, id", location.getId(), day);
+            assertThat(revisions).as("revisions of %s", day).isNotEmpty();
+            assertThat(revisions.stream().filter(r -> r.get("superseded_at") == null)).as("current rows of %s", day)
+                    .hasSize(1);
+            assertThat(revisions.get(revisions.size() - 1).get("superseded_at")).as("the newest is current").isNull();
+            for (int i = 1; i < revisions.size(); i++) {
+                assertThat(((java.math.BigDecimal) revisions.get(i).get("amount")).compareTo(
+                        (java.math.BigDecimal) revisions.get(i - 1).get("amount"))).as("a repeated value was stored")
+                        .isNotZero();
+                assertThat(revisions.get(i - 1).get("superseded_at")).as("superseded when the next was recorded")
+                        .isEqualTo(revisions.get(i).get("recorded_at"));
+            }
+            double current = ((java.math.BigDecimal) revisions.get(revisions.size() - 1).get("amount")).doubleValue();
+            assertThat(current - d).isIn(100.0, 200.0, 300.0);
+        }
+        // and a post after the storm is what the series reads
+        mvc.perform(postFigures(dailyFigures(code, first, 7, 450))).andExpect(status().isOk());
+        mvc.perform(get("/api/v1/locations/{c}/series", code).header("Authorization", "Bearer " + token)
+                        .param("granularity", "day").param("from", first.toString()).param("to", first.plusDays(6).toString()))
+                .andExpect(status().isOk()).andExpect(jsonPath("$.points[0].amount").value(450.0))
+                .andExpect(jsonPath("$.points[6].amount").value(456.0));
+    }
+
     @Test
     void tenThousandDailyFiguresRepostedCorrectedAndReadAsOfBefore() throws Exception {
         // 5 locations × 2,000 days = 10,000 daily figures in one request

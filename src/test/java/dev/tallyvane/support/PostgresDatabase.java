@@ -100,6 +100,25 @@ public final class PostgresDatabase {
         return new String[] {base + database + "?reWriteBatchedInserts=true", t.user(), t.password()};
     }
 
+    /**
+     * The shell command that restarts the test PostgreSQL server (for the crash-safety test):
+     * {@code TALLYVANE_TEST_PG_RESTART} when set, else the local Debian cluster's pg_ctlcluster.
+     *
+     * @throws IllegalStateException when neither is available (a container cannot be restarted in place)
+     */
+    public static String localClusterRestartCommand() {
+        String given = System.getenv("TALLYVANE_TEST_PG_RESTART");
+        if (given != null && !given.isBlank()) {
+            return given;
+        }
+        java.io.File clusters = new java.io.File("/etc/postgresql");
+        String[] versions = clusters.list();
+        if (versions == null || versions.length == 0) {
+            throw new IllegalStateException("cannot restart the test PostgreSQL: set TALLYVANE_TEST_PG_RESTART");
+        }
+        return "pg_ctlcluster --skip-systemctl-redirect " + versions[0] + " main restart";
+    }
+
     private static void drop(String url, String user, String password, String database) {
         try (Connection c = DriverManager.getConnection(url, user, password); Statement s = c.createStatement()) {
             s.execute("drop database if exists " + database + " with (force)");

@@ -33,6 +33,30 @@ public final class Workbooks {
         return build(false, null, lines);
     }
 
+    /**
+     * A figures sheet whose cells are all text as given (location, period, amount per row): how a
+     * sheet typed by hand, or filled with junk, arrives.
+     */
+    public static byte[] textCells(java.util.List<String[]> rows) {
+        try (XSSFWorkbook wb = new XSSFWorkbook(); ByteArrayOutputStream out = new ByteArrayOutputStream()) {
+            Sheet sheet = wb.createSheet("figures");
+            Row header = sheet.createRow(0);
+            header.createCell(0).setCellValue("Location");
+            header.createCell(1).setCellValue("Period");
+            header.createCell(2).setCellValue("Amount");
+            for (int i = 0; i < rows.size(); i++) {
+                Row row = sheet.createRow(i + 1);
+                for (int c = 0; c < 3; c++) {
+                    row.createCell(c).setCellValue(rows.get(i)[c]);
+                }
+            }
+            wb.write(out);
+            return out.toByteArray();
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
     /** The same with a formula in the amount of the first line. */
     public static byte[] withFormula(String formula, Line... lines) {
         return build(false, formula, lines);

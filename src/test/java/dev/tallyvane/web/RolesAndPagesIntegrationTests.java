@@ -56,6 +56,20 @@ class RolesAndPagesIntegrationTests {
         mvc.perform(get("/css/app.css")).andExpect(status().isOk());
     }
 
+    /** Static files, the chart library and the API reference's own files are served (from the jar, no CDN). */
+    @Test
+    void staticFilesWebJarsAndTheApiReferenceAreServed() throws Exception {
+        mvc.perform(get("/js/charts.js").with(owner)).andExpect(status().isOk());
+        mvc.perform(get("/img/favicon.svg")).andExpect(status().isOk());
+        mvc.perform(get("/webjars/uplot/1.6.30/dist/uPlot.iife.min.js")).andExpect(status().isOk())
+                .andExpect(content().string(containsString("uPlot")));
+        mvc.perform(get("/webjars/uplot/1.6.30/dist/uPlot.min.css")).andExpect(status().isOk());
+        mvc.perform(get("/api-docs").with(owner)).andExpect(status().is3xxRedirection());
+        mvc.perform(get("/swagger-ui/index.html").with(owner)).andExpect(status().isOk());
+        mvc.perform(get("/v3/api-docs").with(owner)).andExpect(status().isOk())
+                .andExpect(content().string(containsString("/api/v1/figures")));
+    }
+
     @Test
     void rolesNest() throws Exception {
         mvc.perform(get("/").with(viewer)).andExpect(status().isOk());

@@ -1,0 +1,304 @@
+package dev.tallyvane.e2e;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import dev.tallyvane.support.PostgresDatabase;
+import java.io.ByteArrayOutputStream;
+import java.io.IOException;
+import java.net.CookieManager;
+import java.net.ServerSocket;
+import java.net.URI;
+import java.net.URLEncoder;
+import java.net.http.HttpClient;
+import java.net.http.HttpRequest;
+import java.net.http.HttpResponse;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.sql.Connection;
+import java.sql.DriverManager;
+import java.sql.ResultSet;
+import java.time.Duration;
+import java.time.LocalDate;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.atomic.AtomicBoolean;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import org.junit.jupiter.api.AfterEach;
+import org.junit.jupiter.api.Test;
+
+/**
+ * Crash safety of the packaged service on PostgreSQL: the process is killed with SIGKILL (no
+ * shutdown hooks) in the middle of committing a 100,000-row upload and again in the middle of a
+ * re-fit batch, then started again; and PostgreSQL itself is restarted while a till keeps posting.
+ * Proves: an upload is all or nothing and can be committed after the crash; figures acknowledged
+ * before a crash are all there; re-fits queued or running at the crash complete after the restart;
+ * during a database restart tills get 503 (never 500) and the service recovers by itself.
+ */
+class CrashSafetyEndToEndTests {
+
+    static final int LOCATIONS = 50;
+    static final int DAYS = 2000;
+    static final LocalDate FIRST = LocalDate.of(2021, 5, 1);
+
+    String[] db;
+    Process service;
+    Path console;
+    int port;
+
+    @AfterEach
+    void stop() throws Exception {
+        if (service != null && service.isAlive()) {
+            service.destroyForcibly().waitFor();
+        }
+    }
+
+    private void start() throws Exception {
+        Path jar = Path.of(System.getProperty("tallyvane.jar", "target/tallyvane.jar"));
+        assertThat(jar).exists();
+        try (ServerSocket s = new ServerSocket(0)) {
+            port = s.getLocalPort();
+        }
+        Path data = Files.createTempDirectory("tallyvane-crash");
+        console = data.resolve("console.log");
+        service = new ProcessBuilder(Path.of(System.getProperty("java.home"), "bin", "java").toString(), "-Xmx512m",
+                "-jar", jar.toString(), "--spring.profiles.active=postgres", "--spring.datasource.url=" + db[0],
+                "--spring.datasource.username=" + db[1], "--spring.datasource.password=" + db[2],
+                "--server.port=" + port, "--tallyvane.data-dir=" + data, "--spring.mail.port=1",
+                "--tallyvane.jobs.heartbeat=1s", "--tallyvane.jobs.polling-interval=200ms",
+                "--tallyvane.refit.coalesce=1s", "--spring.datasource.hikari.connection-timeout=2000")
+                .redirectErrorStream(true).redirectOutput(console.toFile()).start();
+        long deadline = System.nanoTime() + Duration.ofMinutes(3).toNanos();
+        while (System.nanoTime() < deadline) {
+            assertThat(service.isAlive()).as("the service runs: %s", tail()).isTrue();
+            try {
+                if (HttpClient.newHttpClient().send(HttpRequest.newBuilder(uri("/actuator/health")).build(),
+                        HttpResponse.BodyHandlers.ofString()).body().contains("UP")) {
+                    return;
+                }
+            } catch (IOException notYet) {
+                // starting
+            }
+            Thread.sleep(300);
+        }
+        throw new AssertionError("the service did not start: " + tail());
+    }
+
+    private void kill() throws Exception {
+        new ProcessBuilder("kill", "-9", Long.toString(service.pid())).start().waitFor();
+        service.waitFor();
+    }
+
+    private String tail() throws IOException {
+        if (console == null || !Files.exists(console)) {
+            return "";
+        }
+        List<String> lines = Files.readAllLines(console);
+        return String.join("\n", lines.subList(Math.max(0, lines.size() - 40), lines.size()));
+    }
+
+    private URI uri(String path) {
+        return URI.create("http://127.0.0.1:" + port + path);
+    }
+
+    private long count(String sql) throws Exception {
+        try (Connection c = DriverManager.getConnection(db[0], db[1], db[2]); ResultSet rs = c.createStatement()
+                .executeQuery(sql)) {
+            rs.next();
+            return rs.getLong(1);
+        }
+    }
+
+    private static String csrf(String html) {
+        Matcher m = Pattern.compile("name=\"_csrf\" value=\"([^\"]+)\"").matcher(html);
+        assertThat(m.find()).as("a CSRF token in the page").isTrue();
+        return m.group(1);
+    }
+
+    private static String form(String... pairs) {
+        StringBuilder sb = new StringBuilder();
+        for (int i = 0; i < pairs.length; i += 2) {
+            sb.append(i == 0 ? "" : "&").append(pairs[i]).append('=').append(URLEncoder.encode(pairs[i + 1],
+                    StandardCharsets.UTF_8));
+        }
+        return sb.toString();
+    }
+
+    private HttpResponse<String> postForm(HttpClient http, String path, String body) throws Exception {
+        return http.send(HttpRequest.newBuilder(uri(path)).header("Content-Type", "application/x-www-form-urlencoded")
+                .POST(HttpRequest.BodyPublishers.ofString(body)).build(), HttpResponse.BodyHandlers.ofString());
+    }
+
+    private String get(HttpClient http, String path) throws Exception {
+        return http.send(HttpRequest.newBuilder(uri(path)).build(), HttpResponse.BodyHandlers.ofString()).body();
+    }
+
+    private HttpClient signIn() throws Exception {
+        HttpClient http = HttpClient.newBuilder().cookieHandler(new CookieManager())
+                .followRedirects(HttpClient.Redirect.NEVER).build();
+        String login = get(http, "/login");
+        HttpResponse<String> r = postForm(http, "/login", form("username", "olive", "password", "a long secret phrase",
+                "_csrf", csrf(login)));
+        assertThat(r.headers().firstValue("Location").orElse("")).doesNotContain("error");
+        return http;
+    }
+
+    private static byte[] bigCsv() {
+        StringBuilder sb = new StringBuilder(4_000_000).append("location,period,amount\n");
+        for (int l = 1; l <= LOCATIONS; l++) {
+            for (int d = 0; d < DAYS; d++) {
+                LocalDate day = FIRST.plusDays(d);
+                sb.append("C").append(l).append(',').append(day).append(',').append(String.format(Locale.ROOT, "%.2f",
+                        1000 + 10 * l + (day.getDayOfWeek().getValue() >= 6 ? 300 : 0) + (d * 7919 % 97))).append('\n');
+            }
+        }
+        return sb.toString().getBytes(StandardCharsets.UTF_8);
+    }
+
+    private String stage(HttpClient http, byte[] csv) throws Exception {
+        String page = get(http, "/uploads");
+        String boundary = "----crash" + System.nanoTime();
+        ByteArrayOutputStream body = new ByteArrayOutputStream();
+        body.write(("--" + boundary + "\r\nContent-Disposition: form-data; name=\"file\"; filename=\"big.csv\"\r\n"
+                + "Content-Type: text/csv\r\n\r\n").getBytes(StandardCharsets.UTF_8));
+        body.write(csv);
+        body.write(("\r\n--" + boundary + "--\r\n").getBytes(StandardCharsets.UTF_8));
+        HttpResponse<String> r = http.send(HttpRequest.newBuilder(uri("/uploads")).header("X-CSRF-TOKEN", csrf(page))
+                .header("Content-Type", "multipart/form-data; boundary=" + boundary)
+                .POST(HttpRequest.BodyPublishers.ofByteArray(body.toByteArray())).build(), HttpResponse.BodyHandlers.ofString());
+        assertThat(r.statusCode()).as("staged: %s", r.body()).isEqualTo(302);
+        return r.headers().firstValue("Location").orElseThrow().replaceAll("^https?://[^/]+", "");
+    }
+
+    private static final String FIGURES = "select count(*) from figure_revision";
+
+    @Test
+    void killedDuringCommitAndRefitThenDatabaseRestartedUnderLoad() throws Exception {
+        db = PostgresDatabase.fresh();
+        start();
+        HttpClient setup = HttpClient.newBuilder().cookieHandler(new CookieManager())
+                .followRedirects(HttpClient.Redirect.NEVER).build();
+        String setupPage = get(setup, "/setup");
+        postForm(setup, "/setup", form("username", "olive", "displayName", "Olive", "email", "", "password",
+                "a long secret phrase", "passwordAgain", "a long secret phrase", "_csrf", csrf(setupPage)));
+        HttpClient owner = signIn();
+        String tokensPage = get(owner, "/tokens");
+        HttpResponse<String> created = postForm(owner, "/tokens", form("name", "till", "location", "", "_csrf",
+                csrf(tokensPage)));
+        String createdPage = created.statusCode() == 302 ? get(owner, created.headers().firstValue("Location")
+                .orElseThrow().replaceAll("^https?://[^/]+", "")) : created.body();
+        Matcher secret = Pattern.compile("(tv_[A-Za-z0-9_-]+)").matcher(createdPage);
+        assertThat(secret.find()).as("the new token is shown").isTrue();
+        String token = secret.group(1);
+
+        // 1. a figure acknowledged by the API before any crash
+        HttpClient till = HttpClient.newHttpClient();
+        HttpResponse<String> posted = postJson(till, token, "{\"figures\":[{\"location\":\"C1\",\"period\":\"2026-11-28\","
+                + "\"amount\":1234.5}]}");
+        assertThat(posted.statusCode()).as(posted.body()).isIn(200, 404, 422);
+        // (C1 does not exist yet: the till's post is refused; it is created by the upload below)
+
+        // 2. kill -9 while the 100,000-row upload commits
+        String preview = stage(owner, bigCsv());
+        String previewPage = get(owner, preview);
+        CompletableFuture<HttpResponse<String>> commit = owner.sendAsync(HttpRequest.newBuilder(uri(preview + "/commit"))
+                .header("Content-Type", "application/x-www-form-urlencoded")
+                .POST(HttpRequest.BodyPublishers.ofString(form("createLocations", "true", "_csrf", csrf(previewPage))))
+                .build(), HttpResponse.BodyHandlers.ofString());
+        long deadline = System.nanoTime() + Duration.ofSeconds(60).toNanos();
+        boolean writing = false;
+        while (!writing && System.nanoTime() < deadline && !commit.isDone()) {
+            writing = count("select count(*) from pg_stat_activity where datname = current_database() and state <> 'idle' "
+                    + "and pid <> pg_backend_pid() and (query ilike '%figure_revision%' or query ilike 'copy%' "
+                    + "or query ilike '%into location%')") > 0;
+        }
+        assertThat(writing).as("caught the commit while it was writing (commit finished first: %s)", commit.isDone())
+                .isTrue();
+        kill();
+        assertThat(count(FIGURES)).as("no half-committed upload").isZero();
+        assertThat(count("select count(*) from location")).as("no locations from the half-committed upload").isZero();
+
+        start();
+        owner = signIn();
+        String again = get(owner, preview);
+        assertThat(again).contains("Save these figures");
+        HttpResponse<String> done = postForm(owner, preview + "/commit", form("createLocations", "true", "_csrf",
+                csrf(again)));
+        assertThat(done.statusCode()).isEqualTo(302);
+        assertThat(count(FIGURES)).as("the upload committed after the crash").isEqualTo((long) LOCATIONS * DAYS);
+
+        // 3. kill -9 in the middle of the re-fit batch the upload queued
+        deadline = System.nanoTime() + Duration.ofSeconds(120).toNanos();
+        while (count("select count(*) from issued_forecast") < 3 && System.nanoTime() < deadline) {
+            Thread.sleep(50);
+        }
+        long issuedBefore = count("select count(*) from issued_forecast");
+        kill();
+        assertThat(issuedBefore).as("the crash came in the middle of the batch").isBetween(1L, (long) LOCATIONS - 1);
+        start();
+        deadline = System.nanoTime() + Duration.ofSeconds(240).toNanos();
+        while (count("select count(distinct location_id) from issued_forecast") < LOCATIONS
+                && System.nanoTime() < deadline) {
+            Thread.sleep(500);
+        }
+        assertThat(count("select count(distinct location_id) from issued_forecast"))
+                .as("every queued re-fit completed after the restart").isEqualTo(LOCATIONS);
+        assertThat(count(FIGURES)).as("no figure lost").isEqualTo((long) LOCATIONS * DAYS);
+
+        // 4. PostgreSQL restarts while a till keeps posting: 200 or 503, never 500; recovery without help
+        String cluster = PostgresDatabase.localClusterRestartCommand();
+        Map<LocalDate, Integer> acknowledged = new ConcurrentHashMap<>();
+        List<Integer> statuses = java.util.Collections.synchronizedList(new ArrayList<>());
+        AtomicBoolean stop = new AtomicBoolean();
+        Thread poster = new Thread(() -> {
+            LocalDate day = LocalDate.of(2026, 11, 1);
+            while (!stop.get()) {
+                try {
+                    HttpResponse<String> r = postJson(till, token, "{\"figures\":[{\"location\":\"C2\",\"period\":\""
+                            + day + "\",\"amount\":777}]}");
+                    statuses.add(r.statusCode());
+                    if (r.statusCode() == 200) {
+                        acknowledged.put(day, 777);
+                        day = day.plusDays(1).isAfter(LocalDate.of(2026, 11, 30)) ? LocalDate.of(2026, 11, 1)
+                                : day.plusDays(1);
+                    }
+                    Thread.sleep(50);
+                } catch (Exception e) {
+                    statuses.add(-1);
+                }
+            }
+        });
+        poster.start();
+        Thread.sleep(1000);
+        Process restart = new ProcessBuilder("bash", "-c", cluster).redirectErrorStream(true).start();
+        assertThat(restart.waitFor()).as("restarting PostgreSQL: %s", new String(restart.getInputStream().readAllBytes(),
+                StandardCharsets.UTF_8)).isZero();
+        int seen = statuses.size();
+        deadline = System.nanoTime() + Duration.ofSeconds(60).toNanos();
+        while (System.nanoTime() < deadline && statuses.subList(seen, statuses.size()).stream().noneMatch(s -> s == 200)) {
+            Thread.sleep(200);
+        }
+        Thread.sleep(1000);
+        stop.set(true);
+        poster.join();
+        assertThat(statuses).as("answers during the restart").doesNotContain(500).contains(200);
+        assertThat(statuses.subList(seen, statuses.size())).as("recovered after the restart").contains(200);
+        for (LocalDate d : acknowledged.keySet()) {
+            assertThat(count("select count(*) from figure_revision r join location l on l.id = r.location_id where "
+                    + "l.code = 'C2' and r.period_start = date '" + d + "' and r.amount = 777 and r.superseded_at is null"))
+                    .as("acknowledged figure of %s kept", d).isEqualTo(1);
+        }
+        assertThat(service.isAlive()).isTrue();
+    }
+
+    private HttpResponse<String> postJson(HttpClient http, String token, String json) throws Exception {
+        return http.send(HttpRequest.newBuilder(uri("/api/v1/figures"))
+                .header("Authorization", "Bearer " + token).header("Content-Type", "application/json")
+                .POST(HttpRequest.BodyPublishers.ofString(json)).build(), HttpResponse.BodyHandlers.ofString());
+    }
+}
