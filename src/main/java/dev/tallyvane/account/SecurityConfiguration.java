@@ -134,7 +134,19 @@ class SecurityConfiguration {
                 throws ServletException, IOException {
             String header = request.getHeader("Authorization");
             if (header != null && header.regionMatches(true, 0, "Bearer ", 0, 7)) {
-                var client = tokens.authenticate(header.substring(7).trim());
+                java.util.Optional<ApiClient> client;
+                try {
+                    client = tokens.authenticate(header.substring(7).trim());
+                } catch (RuntimeException e) {
+                    if (!dev.tallyvane.system.DatabaseOutage.isOutage(e)) {
+                        throw e;
+                    }
+                    response.setHeader("Retry-After", "10");
+                    problem(response, 503, "database-unavailable", "Temporarily unavailable",
+                            "The database cannot be reached just now; nothing was saved. Send the same request again "
+                                    + "in a few seconds.");
+                    return;
+                }
                 if (client.isEmpty()) {
                     problem(response, 401, "invalid-token", "Invalid API token",
                             "The token is unknown or has been revoked.");

@@ -37,6 +37,16 @@ class PageProblems {
         return mv;
     }
 
+    /** Any other failure caused by a lost database connection (e.g. a failed rollback) is the same outage. */
+    @ExceptionHandler(org.springframework.core.NestedRuntimeException.class)
+    ModelAndView wrappedOutage(org.springframework.core.NestedRuntimeException e,
+            jakarta.servlet.http.HttpServletResponse response) throws org.springframework.core.NestedRuntimeException {
+        if (!DatabaseOutage.isOutage(e)) {
+            throw e;
+        }
+        return databaseUnavailable(e, response);
+    }
+
     @ExceptionHandler(InvalidRequest.class)
     ModelAndView invalid(InvalidRequest e) {
         ModelAndView mv = new ModelAndView("error/problem");

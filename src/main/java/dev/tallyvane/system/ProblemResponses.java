@@ -100,6 +100,9 @@ public class ProblemResponses {
 
     @ExceptionHandler(Exception.class)
     ResponseEntity<ProblemDetail> unexpected(Exception e, HttpServletRequest request) {
+        if (DatabaseOutage.isOutage(e)) {
+            return databaseUnavailable(e, request);
+        }
         log.error("unexpected failure on {} {}", request.getMethod(), request.getRequestURI(), e);
         return ResponseEntity.status(HttpStatus.INTERNAL_SERVER_ERROR).body(problem(HttpStatus.INTERNAL_SERVER_ERROR,
                 "internal-error", "Something went wrong on our side", "The request was not completed; nothing was "

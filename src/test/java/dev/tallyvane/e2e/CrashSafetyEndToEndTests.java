@@ -154,7 +154,7 @@ class CrashSafetyEndToEndTests {
             for (int d = 0; d < DAYS; d++) {
                 LocalDate day = FIRST.plusDays(d);
                 sb.append("C").append(l).append(',').append(day).append(',').append(String.format(Locale.ROOT, "%.2f",
-                        1000 + 10 * l + (day.getDayOfWeek().getValue() >= 6 ? 300 : 0) + (d * 7919 % 97))).append('\n');
+                        1000.0 + 10 * l + (day.getDayOfWeek().getValue() >= 6 ? 300 : 0) + (d * 7919 % 97))).append('\n');
             }
         }
         return sb.toString().getBytes(StandardCharsets.UTF_8);
