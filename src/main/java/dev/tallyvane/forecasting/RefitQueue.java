@@ -22,7 +22,6 @@ import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.stereotype.Service;
 import org.springframework.transaction.event.TransactionPhase;
 import org.springframework.transaction.event.TransactionalEventListener;
-import org.springframework.transaction.support.TransactionTemplate;
 
 /**
  * The re-fit queue, on the shared job queue ({@link Jobs}).
@@ -46,18 +45,16 @@ public class RefitQueue {
     private final IssuedForecastStore issued;
     private final RefitProperties properties;
     private final JdbcTemplate jdbc;
-    private final TransactionTemplate transactions;
     private final Clock clock;
     private final ObjectProvider<Jobs> jobs;
     private final CustomTask<Void> refitTask;
 
     RefitQueue(SeriesStateStore state, IssuedForecastStore issued, RefitProperties properties, JdbcTemplate jdbc,
-            TransactionTemplate transactions, Clock clock, ObjectProvider<Jobs> jobs, CustomTask<Void> refitTask) {
+            Clock clock, ObjectProvider<Jobs> jobs, CustomTask<Void> refitTask) {
         this.state = state;
         this.issued = issued;
         this.properties = properties;
         this.jdbc = jdbc;
-        this.transactions = transactions;
         this.clock = clock;
         this.jobs = jobs;
         this.refitTask = refitTask;
@@ -97,15 +94,52 @@ public class RefitQueue {
         }
     }
 
-    /** Figures were committed: note the change and queue a re-fit of each series after the coalescing window. */
+    /**
+     * Figures are being committed: note the change in the same transaction (on the same connection,
+     * so a post never needs a second connection while it holds one; with many posts at once that
+     * would exhaust the pool).
+     */
+    @TransactionalEventListener(phase = TransactionPhase.BEFORE_COMMIT)
+    void figuresRecording(FiguresRecorded event) {
+        for (FiguresRecorded.SeriesRef ref : event.series()) {
+            state.changed(new SeriesStateStore.SeriesKey(ref.locationId(), ref.measure()), event.at());
+        }
+    }
+
+    /**
+     * Figures were committed: queue a re-fit of each series after the coalescing window, on the
+     * queueing thread, after the posting request has given back its connection. Should the process
+     * stop before that, the nightly sweep finds the series from the figures themselves.
+     */
     @TransactionalEventListener(phase = TransactionPhase.AFTER_COMMIT)
     void figuresRecorded(FiguresRecorded event) {
         Instant due = Instant.now().plus(properties.coalesce());
-        for (FiguresRecorded.SeriesRef ref : event.series()) {
-            SeriesStateStore.SeriesKey key = new SeriesStateStore.SeriesKey(ref.locationId(), ref.measure());
-            transactions.executeWithoutResult(tx -> state.changed(key, event.at()));
-            jobs.getObject().client().scheduleIfNotExists(refitTask.instance(key.instance()), due);
-        }
+        List<SeriesStateStore.SeriesKey> keys = event.series().stream()
+                .map(ref -> new SeriesStateStore.SeriesKey(ref.locationId(), ref.measure())).toList();
+        queueing.execute(() -> {
+            for (SeriesStateStore.SeriesKey key : keys) {
+                try {
+                    jobs.getObject().client().scheduleIfNotExists(refitTask.instance(key.instance()), due);
+                } catch (RuntimeException e) {
+                    log.warn("could not queue the re-fit of {} (the nightly sweep will): {}", key.instance(),
+                            e.getMessage());
+                }
+            }
+        });
+    }
+
+    /** One thread queues re-fits after commits, in commit order. */
+    private final java.util.concurrent.ExecutorService queueing = java.util.concurrent.Executors
+            .newSingleThreadExecutor(r -> {
+                Thread t = new Thread(r, "refit-queueing");
+                t.setDaemon(true);
+                return t;
+            });
+
+    @jakarta.annotation.PreDestroy
+    void stopQueueing() throws InterruptedException {
+        queueing.shutdown();
+        queueing.awaitTermination(10, java.util.concurrent.TimeUnit.SECONDS);
     }
 
     /** Queues a re-fit now of every series of one location (or of all, when null); returns how many. */
