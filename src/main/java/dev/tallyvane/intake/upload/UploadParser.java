@@ -32,6 +32,32 @@ final class UploadParser {
     private static final Pattern MY = Pattern.compile("(\\d{1,2})[./-](\\d{4})");
     private static final Pattern NOISE = Pattern.compile("[\\s\\u00A0\\u202F'’]|[^\\d.,()+\\-]");
 
+    /**
+     * What an amount written as text may look like: digits with spaces, apostrophes, points and
+     * commas, a sign or parentheses, and a currency before or after (a symbol, an ISO 4217 code or
+     * "kr"/"Fr."). Anything else (letters inside the number, words) is not an amount: "12abc" must
+     * not be read as 12.
+     */
+    private static final Pattern AMOUNT_SHAPE = Pattern.compile(
+            "\\(?\\s*[+-]?\\s*(?<pre>\\p{Sc}|[A-Za-z]{2,3}\\.?)?\\s*[+-]?\\s*[\\d][\\d\\s\\u00A0\\u202F'’.,]*"
+                    + "\\s*(?<post>\\p{Sc}|[A-Za-z]{2,3}\\.?)?\\s*[+-]?\\s*\\)?");
+
+    private static boolean currencyWord(String w) {
+        if (w == null || w.isEmpty() || !Character.isLetter(w.charAt(0))) {
+            return true; // absent, or a currency symbol
+        }
+        String word = w.endsWith(".") ? w.substring(0, w.length() - 1) : w;
+        if (word.equalsIgnoreCase("kr") || word.equalsIgnoreCase("fr")) {
+            return true;
+        }
+        try {
+            java.util.Currency.getInstance(word.toUpperCase(java.util.Locale.ROOT));
+            return true;
+        } catch (IllegalArgumentException e) {
+            return false;
+        }
+    }
+
     private UploadParser() {
     }
 
@@ -194,6 +220,10 @@ final class UploadParser {
     static BigDecimal parseAmount(String text, UploadOptions.NumberStyle style) {
         String s = text.trim();
         if (s.matches("(?i)[+-]?(nan|inf(inity)?)")) {
+            return null;
+        }
+        java.util.regex.Matcher shape = AMOUNT_SHAPE.matcher(s);
+        if (!shape.matches() || !currencyWord(shape.group("pre")) || !currencyWord(shape.group("post"))) {
             return null;
         }
         boolean negative = s.startsWith("(") && s.endsWith(")");

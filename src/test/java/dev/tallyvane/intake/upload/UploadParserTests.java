@@ -50,6 +50,15 @@ class UploadParserTests {
         assertThat(UploadParser.parseAmount("Infinity", UploadOptions.NumberStyle.POINT)).isNull();
         assertThat(UploadParser.parseAmount("12-5", UploadOptions.NumberStyle.POINT)).isNull();
         assertThat(UploadParser.parseAmount("abc", UploadOptions.NumberStyle.POINT)).isNull();
+        // a currency before or after is fine; letters that are not one, or inside the number, are not
+        // (found by the intake fuzzing: "12abc" used to be read as 12)
+        assertThat(UploadParser.parseAmount("EUR 1,234.50", UploadOptions.NumberStyle.POINT)).isEqualByComparingTo("1234.50");
+        assertThat(UploadParser.parseAmount("1.234,50 €", UploadOptions.NumberStyle.COMMA)).isEqualByComparingTo("1234.50");
+        assertThat(UploadParser.parseAmount("12,50 kr.", UploadOptions.NumberStyle.COMMA)).isEqualByComparingTo("12.50");
+        assertThat(UploadParser.parseAmount("12abc", UploadOptions.NumberStyle.POINT)).isNull();
+        assertThat(UploadParser.parseAmount("1a2", UploadOptions.NumberStyle.POINT)).isNull();
+        assertThat(UploadParser.parseAmount("about 12", UploadOptions.NumberStyle.POINT)).isNull();
+        assertThat(UploadParser.parseAmount("12 xyz", UploadOptions.NumberStyle.POINT)).isNull();
     }
 
     @Test
