@@ -2,6 +2,7 @@ package dev.tallyvane.engine;
 
 import dev.tallyvane.engine.model.Candidate;
 import dev.tallyvane.engine.model.Combination;
+import dev.tallyvane.engine.model.TradingDayRegression;
 import dev.tallyvane.engine.model.Croston;
 import dev.tallyvane.engine.model.Drift;
 import dev.tallyvane.engine.model.ExponentialSmoothing;
@@ -82,7 +83,10 @@ public final class CandidateSet {
      */
     public static java.util.SortedMap<String, String> catalogue() {
         java.util.SortedMap<String, String> names = new java.util.TreeMap<>();
-        names.put(Combination.KEY, Combination.GENERAL_NAME);
+        for (Combination.Rule rule : Combination.Rule.values()) {
+            names.put(rule.key(), rule.generalName());
+        }
+        names.put(TradingDayRegression.KEY, "Trend with seasonal dummies and trading days (monthly figures)");
         for (int m : new int[] {7, 12, 52}) {
             for (Candidate c : all(m, new double[] {1.0}, true)) {
                 names.putIfAbsent(c.key(), c.key().equals("wma") ? "Weighted moving average with your weights" : c.name());
@@ -99,7 +103,7 @@ public final class CandidateSet {
         }
         Set<String> known = knownKeys();
         for (String k : keys) {
-            if (k.equals(Combination.KEY)) {
+            if (k.startsWith(Combination.KEY)) {
                 continue;
             }
             if (!known.contains(k)) {

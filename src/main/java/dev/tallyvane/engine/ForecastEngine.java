@@ -8,6 +8,7 @@ import dev.tallyvane.engine.evaluation.Metric;
 import dev.tallyvane.engine.evaluation.RollingOriginBacktest;
 import dev.tallyvane.engine.model.Candidate;
 import dev.tallyvane.engine.model.Combination;
+import dev.tallyvane.engine.model.TradingDayRegression;
 import dev.tallyvane.engine.model.Croston;
 import dev.tallyvane.engine.model.FittedModel;
 import dev.tallyvane.engine.model.Naive;
@@ -75,7 +76,12 @@ public final class ForecastEngine {
         if (intermittent) {
             notes.add("many periods without sales: Croston's method and its Syntetos-Boylan correction are compared too");
         }
-        List<Candidate> candidates = CandidateSet.select(m, request.customWeights(), request.candidateKeys(), intermittent);
+        List<Candidate> candidates = new ArrayList<>(CandidateSet.select(m, request.customWeights(),
+                request.candidateKeys(), intermittent));
+        if (series.granularity() == dev.tallyvane.engine.series.Granularity.MONTH && (request.candidateKeys().isEmpty()
+                || request.candidateKeys().contains(TradingDayRegression.KEY))) {
+            candidates.add(new TradingDayRegression(java.time.YearMonth.from(series.periodAt(data.offset()))));
+        }
         RollingOriginBacktest backtest = RollingOriginBacktest.plan(n, h, request.maxOrigins(),
                 request.originStep(), MINIMUM_TRAINING);
 
@@ -104,13 +110,18 @@ public final class ForecastEngine {
                 .thenComparingInt(s -> s.candidate.complexity());
         scored.sort(order);
         List<Scored> best = scored.stream().filter(s -> Double.isFinite(s.score)).limit(COMBINED).toList();
-        if (best.size() >= 2 && (request.candidateKeys().isEmpty() || request.candidateKeys().contains(Combination.KEY))) {
-            Combination combination = new Combination(best.stream().map(Scored::candidate).toList());
-            RollingOriginBacktest.Outcome outcome = backtest.score(Combination.average(best.stream()
-                    .map(s -> s.outcome.forecasts()).toList()), data.filled(), data.scorable(), m);
-            scored.add(new Scored(combination, outcome, outcome.errors().compute(metric)));
-            scored.sort(order);
+        for (Combination.Rule rule : Combination.Rule.values()) {
+            // the median of two is their mean: the median joins only with three members
+            int needed = rule == Combination.Rule.MEDIAN ? 3 : 2;
+            if (best.size() >= needed && (request.candidateKeys().isEmpty()
+                    || request.candidateKeys().contains(rule.key()))) {
+                Combination combination = new Combination(best.stream().map(Scored::candidate).toList(), rule);
+                RollingOriginBacktest.Outcome outcome = backtest.score(combination.combine(best.stream()
+                        .map(s -> s.outcome.forecasts()).toList()), data.filled(), data.scorable(), m);
+                scored.add(new Scored(combination, outcome, outcome.errors().compute(metric)));
+            }
         }
+        scored.sort(order);
 
         Candidate chosen;
         RollingOriginBacktest.Outcome chosenOutcome = null;

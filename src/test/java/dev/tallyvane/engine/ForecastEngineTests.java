@@ -34,7 +34,8 @@ class ForecastEngineTests {
     @Test
     void choosesASeasonalModelForSeasonalMonthlySalesAndReportsEveryCandidate() {
         ForecastResult r = ForecastEngine.forecast(monthly(seasonalMonthly(48, 1)), ForecastRequest.of(6));
-        assertThat(r.chosenKey()).isIn("snaive", "poly1s", "poly2s", "ets");
+        // the seasonal forms (tdays: seasonal dummies with trading days, which can win on noise alone)
+        assertThat(r.chosenKey()).isIn("snaive", "poly1s", "poly2s", "ets", "tdays");
         assertThat(r.forecasts()).hasSize(6);
         assertThat(r.forecasts().get(0).label()).isEqualTo("2027-01");
         assertThat(r.reason()).isEqualTo("Lowest MSE over 6 rolling origins, 6 months ahead.");
@@ -157,7 +158,7 @@ class ForecastEngineTests {
         ForecastResult r = ForecastEngine.forecast(s, ForecastRequest.of(3));
         LeaderboardEntry combo = r.leaderboard().stream().filter(e -> e.key().equals("combo")).findFirst().orElseThrow();
         List<LeaderboardEntry> singles = r.leaderboard().stream()
-                .filter(e -> e.status() == LeaderboardEntry.Status.SCORED && !e.key().equals("combo")).limit(3).toList();
+                .filter(e -> e.status() == LeaderboardEntry.Status.SCORED && !e.key().startsWith("combo")).limit(3).toList();
         assertThat(combo.name()).startsWith("Mean of ").contains(singles.get(0).name());
         // recompute: the three best alone, their origin forecasts averaged, MSE over the same actuals
         double[] y = s.values();
