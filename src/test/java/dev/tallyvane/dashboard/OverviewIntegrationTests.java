@@ -154,6 +154,10 @@ class OverviewIntegrationTests {
         String detail = mvc.perform(get("/locations/L007").with(owner)).andExpect(status().isOk()).andReturn()
                 .getResponse().getContentAsString();
         assertThat(detail).doesNotContain("<script>alert").contains("&lt;script&gt;");
+        // the weekly e-mail lists every location by name: escaped there too
+        String mail = mvc.perform(get("/email/preview").param("week", "2026-11-23").with(owner)).andExpect(status().isOk())
+                .andReturn().getResponse().getContentAsString();
+        assertThat(mail).doesNotContain("<script>alert").contains("&lt;script&gt;alert(&#39;x&#39;)&lt;/script&gt;");
     }
 
     @Test

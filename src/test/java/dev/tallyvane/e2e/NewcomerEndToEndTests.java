@@ -100,6 +100,9 @@ class NewcomerEndToEndTests {
                         + URLEncoder.encode(password, StandardCharsets.UTF_8) + "&_csrf=" + csrf(login))).build(),
                 HttpResponse.BodyHandlers.ofString());
         assertThat(r.headers().firstValue("Location").orElse("")).endsWith("/");
+        // the session cookie the real server sets: not readable by scripts, not sent by other sites' forms
+        assertThat(r.headers().allValues("Set-Cookie")).anySatisfy(c -> assertThat(c).startsWith("JSESSIONID=")
+                .contains("HttpOnly").contains("SameSite=Lax"));
         return http;
     }
 
