@@ -85,8 +85,10 @@ class RefitClusterPostgresIntegrationTests {
         }
         JdbcTemplate jdbc = a.getBean(JdbcTemplate.class);
         a.getBean(IntakeService.class).record(figures, Submitter.api("token:cluster", null), "item");
-        // replace the queued re-fit (still inside its coalescing window) by one claimed an hour ago by an
-        // instance that has been silent since
+        // replace the queued re-fit (still inside its coalescing window; queued just after the commit) by one
+        // claimed an hour ago by an instance that has been silent since
+        await().atMost(Duration.ofSeconds(10)).until(() -> jdbc.queryForObject("select count(*) from scheduled_tasks "
+                + "where task_name = 'refit' and task_instance = ?", Long.class, id + ":net_sales") == 1);
         jdbc.update("delete from scheduled_tasks where task_name = 'refit' and task_instance = ?", id + ":net_sales");
         jdbc.update("insert into scheduled_tasks (task_name, task_instance, execution_time, picked, picked_by, "
                 + "last_heartbeat, version) values ('refit', ?, now() - interval '1 hour', true, 'node-dead', "
