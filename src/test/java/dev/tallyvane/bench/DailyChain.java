@@ -46,4 +46,19 @@ final class DailyChain {
             intake.record(batch, Submitter.api("token:bench", null), "item");
         }
     }
+
+    /** Queues a re-fit of every series and waits until {@code count} new forecasts are issued and the queue is empty; returns seconds. */
+    static double refitAllAndWait(dev.tallyvane.forecasting.RefitQueue queue,
+            org.springframework.jdbc.core.JdbcTemplate jdbc, int count) {
+        java.time.Instant t0 = java.time.Instant.now();
+        long start = System.nanoTime();
+        queue.refitNow(null);
+        org.awaitility.Awaitility.await().atMost(java.time.Duration.ofMinutes(20))
+                .pollInterval(java.time.Duration.ofMillis(200)).until(() ->
+                        jdbc.queryForObject("select count(*) from issued_forecast where issued_at >= ?", Long.class,
+                                java.sql.Timestamp.from(t0.minusSeconds(1))) >= count
+                                && jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = 'refit'",
+                                        Long.class) == 0);
+        return (System.nanoTime() - start) / 1e9;
+    }
 }

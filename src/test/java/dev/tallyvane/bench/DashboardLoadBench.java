@@ -1,7 +1,5 @@
 package dev.tallyvane.bench;
 
-import static org.awaitility.Awaitility.await;
-
 import dev.tallyvane.account.Role;
 import dev.tallyvane.account.UserService;
 import dev.tallyvane.app.TallyvaneApplication;
@@ -18,9 +16,7 @@ import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
 import java.net.http.HttpResponse;
 import java.nio.charset.StandardCharsets;
-import java.sql.Timestamp;
 import java.time.Duration;
-import java.time.Instant;
 import java.util.ArrayList;
 import java.util.Collections;
 import java.util.List;
@@ -75,12 +71,7 @@ class DashboardLoadBench {
     @Test
     void overviewAndLocationPagesUnderLoad() throws Exception {
         DailyChain.load(locations, intake, 1000);
-        Instant t0 = Instant.now();
-        queue.refitNow(null);
-        await().atMost(Duration.ofMinutes(20)).pollInterval(Duration.ofMillis(500)).until(() ->
-                jdbc.queryForObject("select count(*) from issued_forecast where issued_at >= ?", Long.class,
-                        Timestamp.from(t0.minusSeconds(1))) >= 1000
-                        && jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = 'refit'", Long.class) == 0);
+        DailyChain.refitAllAndWait(queue, jdbc, 1000);
         Users.ensure(users, "bench", Role.VIEWER);
         int seconds = Integer.getInteger("bench.seconds", 30);
         int concurrent = Integer.getInteger("bench.users", 8);

@@ -3,18 +3,14 @@ package dev.tallyvane.e2e;
 import static org.assertj.core.api.Assertions.assertThat;
 
 import dev.tallyvane.support.PostgresDatabase;
-import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.net.CookieManager;
-import java.net.ServerSocket;
 import java.net.URI;
 import java.net.URLEncoder;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
 import java.net.http.HttpResponse;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
-import java.nio.file.Path;
 import java.sql.Connection;
 import java.sql.DriverManager;
 import java.sql.ResultSet;
@@ -47,35 +43,24 @@ class CrashSafetyEndToEndTests {
     static final LocalDate FIRST = LocalDate.of(2021, 5, 1);
 
     String[] db;
-    Process service;
-    Path console;
-    int port;
+    ServiceJar service;
 
     @AfterEach
     void stop() throws Exception {
-        if (service != null && service.isAlive()) {
-            service.destroyForcibly().waitFor();
+        if (service != null && service.process.isAlive()) {
+            service.kill();
         }
     }
 
     private void start() throws Exception {
-        Path jar = Path.of(System.getProperty("tallyvane.jar", "target/tallyvane.jar"));
-        assertThat(jar).exists();
-        try (ServerSocket s = new ServerSocket(0)) {
-            port = s.getLocalPort();
-        }
-        Path data = Files.createTempDirectory("tallyvane-crash");
-        console = data.resolve("console.log");
-        service = new ProcessBuilder(Path.of(System.getProperty("java.home"), "bin", "java").toString(), "-Xmx512m",
-                "-jar", jar.toString(), "--spring.profiles.active=postgres", "--spring.datasource.url=" + db[0],
-                "--spring.datasource.username=" + db[1], "--spring.datasource.password=" + db[2],
-                "--server.port=" + port, "--tallyvane.data-dir=" + data, "--spring.mail.port=1",
-                "--tallyvane.jobs.heartbeat=1s", "--tallyvane.jobs.polling-interval=200ms",
-                "--tallyvane.refit.coalesce=1s", "--spring.datasource.hikari.connection-timeout=2000")
-                .redirectErrorStream(true).redirectOutput(console.toFile()).start();
+        service = ServiceJar.start(List.of("-Xmx512m"), "--spring.profiles.active=postgres",
+                "--spring.datasource.url=" + db[0], "--spring.datasource.username=" + db[1],
+                "--spring.datasource.password=" + db[2], "--tallyvane.jobs.heartbeat=1s",
+                "--tallyvane.jobs.polling-interval=200ms", "--tallyvane.refit.coalesce=1s",
+                "--spring.datasource.hikari.connection-timeout=2000");
         long deadline = System.nanoTime() + Duration.ofMinutes(3).toNanos();
         while (System.nanoTime() < deadline) {
-            assertThat(service.isAlive()).as("the service runs: %s", tail()).isTrue();
+            assertThat(service.process.isAlive()).as("the service runs: %s", service.tail()).isTrue();
             try {
                 if (HttpClient.newHttpClient().send(HttpRequest.newBuilder(uri("/actuator/health")).build(),
                         HttpResponse.BodyHandlers.ofString()).body().contains("UP")) {
@@ -86,24 +71,15 @@ class CrashSafetyEndToEndTests {
             }
             Thread.sleep(300);
         }
-        throw new AssertionError("the service did not start: " + tail());
+        throw new AssertionError("the service did not start: " + service.tail());
     }
 
     private void kill() throws Exception {
-        new ProcessBuilder("kill", "-9", Long.toString(service.pid())).start().waitFor();
-        service.waitFor();
-    }
-
-    private String tail() throws IOException {
-        if (console == null || !Files.exists(console)) {
-            return "";
-        }
-        List<String> lines = Files.readAllLines(console);
-        return String.join("\n", lines.subList(Math.max(0, lines.size() - 40), lines.size()));
+        service.kill();
     }
 
     private URI uri(String path) {
-        return URI.create("http://127.0.0.1:" + port + path);
+        return service.uri(path);
     }
 
     private long count(String sql) throws Exception {
@@ -112,12 +88,6 @@ class CrashSafetyEndToEndTests {
             rs.next();
             return rs.getLong(1);
         }
-    }
-
-    private static String csrf(String html) {
-        Matcher m = Pattern.compile("name=\"_csrf\" value=\"([^\"]+)\"").matcher(html);
-        assertThat(m.find()).as("a CSRF token in the page").isTrue();
-        return m.group(1);
     }
 
     private static String form(String... pairs) {
@@ -143,7 +113,7 @@ class CrashSafetyEndToEndTests {
                 .followRedirects(HttpClient.Redirect.NEVER).build();
         String login = get(http, "/login");
         HttpResponse<String> r = postForm(http, "/login", form("username", "olive", "password", "a long secret phrase",
-                "_csrf", csrf(login)));
+                "_csrf", ServiceJar.csrf(login)));
         assertThat(r.headers().firstValue("Location").orElse("")).doesNotContain("error");
         return http;
     }
@@ -161,16 +131,8 @@ class CrashSafetyEndToEndTests {
     }
 
     private String stage(HttpClient http, byte[] csv) throws Exception {
-        String page = get(http, "/uploads");
-        String boundary = "----crash" + System.nanoTime();
-        ByteArrayOutputStream body = new ByteArrayOutputStream();
-        body.write(("--" + boundary + "\r\nContent-Disposition: form-data; name=\"file\"; filename=\"big.csv\"\r\n"
-                + "Content-Type: text/csv\r\n\r\n").getBytes(StandardCharsets.UTF_8));
-        body.write(csv);
-        body.write(("\r\n--" + boundary + "--\r\n").getBytes(StandardCharsets.UTF_8));
-        HttpResponse<String> r = http.send(HttpRequest.newBuilder(uri("/uploads")).header("X-CSRF-TOKEN", csrf(page))
-                .header("Content-Type", "multipart/form-data; boundary=" + boundary)
-                .POST(HttpRequest.BodyPublishers.ofByteArray(body.toByteArray())).build(), HttpResponse.BodyHandlers.ofString());
+        HttpResponse<String> r = http.send(service.upload("big.csv", csv, get(http, "/uploads")),
+                HttpResponse.BodyHandlers.ofString());
         assertThat(r.statusCode()).as("staged: %s", r.body()).isEqualTo(302);
         return r.headers().firstValue("Location").orElseThrow().replaceAll("^https?://[^/]+", "");
     }
@@ -185,11 +147,11 @@ class CrashSafetyEndToEndTests {
                 .followRedirects(HttpClient.Redirect.NEVER).build();
         String setupPage = get(setup, "/setup");
         postForm(setup, "/setup", form("username", "olive", "displayName", "Olive", "email", "", "password",
-                "a long secret phrase", "passwordAgain", "a long secret phrase", "_csrf", csrf(setupPage)));
+                "a long secret phrase", "passwordAgain", "a long secret phrase", "_csrf", ServiceJar.csrf(setupPage)));
         HttpClient owner = signIn();
         String tokensPage = get(owner, "/tokens");
         HttpResponse<String> created = postForm(owner, "/tokens", form("name", "till", "location", "", "_csrf",
-                csrf(tokensPage)));
+                ServiceJar.csrf(tokensPage)));
         String createdPage = created.statusCode() == 302 ? get(owner, created.headers().firstValue("Location")
                 .orElseThrow().replaceAll("^https?://[^/]+", "")) : created.body();
         Matcher secret = Pattern.compile("(tv_[A-Za-z0-9_-]+)").matcher(createdPage);
@@ -208,7 +170,7 @@ class CrashSafetyEndToEndTests {
         String previewPage = get(owner, preview);
         CompletableFuture<HttpResponse<String>> commit = owner.sendAsync(HttpRequest.newBuilder(uri(preview + "/commit"))
                 .header("Content-Type", "application/x-www-form-urlencoded")
-                .POST(HttpRequest.BodyPublishers.ofString(form("createLocations", "true", "_csrf", csrf(previewPage))))
+                .POST(HttpRequest.BodyPublishers.ofString(form("createLocations", "true", "_csrf", ServiceJar.csrf(previewPage))))
                 .build(), HttpResponse.BodyHandlers.ofString());
         long deadline = System.nanoTime() + Duration.ofSeconds(60).toNanos();
         boolean writing = false;
@@ -228,7 +190,7 @@ class CrashSafetyEndToEndTests {
         String again = get(owner, preview);
         assertThat(again).contains("Save these figures");
         HttpResponse<String> done = postForm(owner, preview + "/commit", form("createLocations", "true", "_csrf",
-                csrf(again)));
+                ServiceJar.csrf(again)));
         assertThat(done.statusCode()).isEqualTo(302);
         assertThat(count(FIGURES)).as("the upload committed after the crash").isEqualTo((long) LOCATIONS * DAYS);
 
@@ -293,7 +255,7 @@ class CrashSafetyEndToEndTests {
                     + "l.code = 'C2' and r.period_start = date '" + d + "' and r.amount = 777 and r.superseded_at is null"))
                     .as("acknowledged figure of %s kept", d).isEqualTo(1);
         }
-        assertThat(service.isAlive()).isTrue();
+        assertThat(service.process.isAlive()).isTrue();
     }
 
     private HttpResponse<String> postJson(HttpClient http, String token, String json) throws Exception {

@@ -2,11 +2,7 @@ package dev.tallyvane.e2e;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import java.io.ByteArrayOutputStream;
-import java.io.IOException;
 import java.net.CookieManager;
-import java.net.ServerSocket;
-import java.net.URI;
 import java.net.URLEncoder;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
@@ -33,30 +29,19 @@ import org.junit.jupiter.api.Test;
  */
 class NewcomerEndToEndTests {
 
-    static Process service;
-    static Path console;
-    static int port;
+    static ServiceJar service;
     static String ownerPassword;
     static String bookkeeperPassword;
 
     @BeforeAll
     static void startTheJar() throws Exception {
-        Path jar = Path.of(System.getProperty("tallyvane.jar", "target/tallyvane.jar"));
-        assertThat(jar).exists();
-        try (ServerSocket s = new ServerSocket(0)) {
-            port = s.getLocalPort();
-        }
-        Path data = Files.createTempDirectory("tallyvane-e2e");
-        console = data.resolve("console.log");
-        service = new ProcessBuilder(Path.of(System.getProperty("java.home"), "bin", "java").toString(), "-jar",
-                jar.toString(), "--server.port=" + port, "--tallyvane.data-dir=" + data, "--spring.mail.port=1")
-                .redirectErrorStream(true).redirectOutput(console.toFile()).start();
+        service = ServiceJar.start(List.of());
         long deadline = System.nanoTime() + Duration.ofMinutes(4).toNanos();
-        while (System.nanoTime() < deadline && !Files.readString(console).contains("sign in as")) {
-            assertThat(service.isAlive()).as("the service is running: %s", tail()).isTrue();
+        while (System.nanoTime() < deadline && !Files.readString(service.console).contains("sign in as")) {
+            assertThat(service.process.isAlive()).as("the service is running: %s", service.tail()).isTrue();
             Thread.sleep(500);
         }
-        String text = Files.readString(console);
+        String text = Files.readString(service.console);
         ownerPassword = grab(text, "owner      / (\\S+)");
         bookkeeperPassword = grab(text, "bookkeeper / (\\S+)");
     }
@@ -64,14 +49,8 @@ class NewcomerEndToEndTests {
     @AfterAll
     static void stop() throws Exception {
         if (service != null) {
-            service.destroy();
-            service.waitFor();
+            service.stop();
         }
-    }
-
-    private static String tail() throws IOException {
-        List<String> lines = Files.readAllLines(console);
-        return String.join("\n", lines.subList(Math.max(0, lines.size() - 30), lines.size()));
     }
 
     private static String grab(String text, String regex) {
@@ -80,24 +59,14 @@ class NewcomerEndToEndTests {
         return m.group(1);
     }
 
-    private static URI uri(String path) {
-        return URI.create("http://localhost:" + port + path);
-    }
-
-    private static String csrf(String html) {
-        Matcher m = Pattern.compile("name=\"_csrf\" value=\"([^\"]+)\"").matcher(html);
-        assertThat(m.find()).isTrue();
-        return m.group(1);
-    }
-
     private static HttpClient signedIn(String user, String password) throws Exception {
         HttpClient http = HttpClient.newBuilder().cookieHandler(new CookieManager())
                 .followRedirects(HttpClient.Redirect.NEVER).build();
-        String login = http.send(HttpRequest.newBuilder(uri("/login")).build(), HttpResponse.BodyHandlers.ofString()).body();
-        HttpResponse<String> r = http.send(HttpRequest.newBuilder(uri("/login"))
+        String login = http.send(HttpRequest.newBuilder(service.uri("/login")).build(), HttpResponse.BodyHandlers.ofString()).body();
+        HttpResponse<String> r = http.send(HttpRequest.newBuilder(service.uri("/login"))
                 .header("Content-Type", "application/x-www-form-urlencoded")
                 .POST(HttpRequest.BodyPublishers.ofString("username=" + user + "&password="
-                        + URLEncoder.encode(password, StandardCharsets.UTF_8) + "&_csrf=" + csrf(login))).build(),
+                        + URLEncoder.encode(password, StandardCharsets.UTF_8) + "&_csrf=" + ServiceJar.csrf(login))).build(),
                 HttpResponse.BodyHandlers.ofString());
         assertThat(r.headers().firstValue("Location").orElse("")).endsWith("/");
         // the session cookie the real server sets: not readable by scripts, not sent by other sites' forms
@@ -107,7 +76,7 @@ class NewcomerEndToEndTests {
     }
 
     private static String get(HttpClient http, String path) throws Exception {
-        HttpResponse<String> r = http.send(HttpRequest.newBuilder(uri(path)).build(), HttpResponse.BodyHandlers.ofString());
+        HttpResponse<String> r = http.send(HttpRequest.newBuilder(service.uri(path)).build(), HttpResponse.BodyHandlers.ofString());
         assertThat(r.statusCode()).as("GET %s", path).isEqualTo(200);
         return r.body();
     }
@@ -131,15 +100,8 @@ class NewcomerEndToEndTests {
         HttpClient bookkeeper = signedIn("bookkeeper", bookkeeperPassword);
         String page = get(bookkeeper, "/uploads");
         byte[] file = Files.readAllBytes(Path.of(System.getProperty("tallyvane.demoCsv", "demo/last-month.csv")));
-        String boundary = "----e2e" + System.nanoTime();
-        ByteArrayOutputStream body = new ByteArrayOutputStream();
-        body.write(("--" + boundary + "\r\nContent-Disposition: form-data; name=\"file\"; filename=\"last-month.csv\"\r\n"
-                + "Content-Type: text/csv\r\n\r\n").getBytes(StandardCharsets.UTF_8));
-        body.write(file);
-        body.write(("\r\n--" + boundary + "--\r\n").getBytes(StandardCharsets.UTF_8));
-        HttpResponse<String> r = bookkeeper.send(HttpRequest.newBuilder(uri("/uploads")).header("X-CSRF-TOKEN", csrf(page))
-                .header("Content-Type", "multipart/form-data; boundary=" + boundary)
-                .POST(HttpRequest.BodyPublishers.ofByteArray(body.toByteArray())).build(), HttpResponse.BodyHandlers.ofString());
+        HttpResponse<String> r = bookkeeper.send(service.upload("last-month.csv", file, page),
+                HttpResponse.BodyHandlers.ofString());
         assertThat(r.statusCode()).isEqualTo(302);
         String preview = get(bookkeeper, r.headers().firstValue("Location").orElseThrow().replaceAll("^https?://[^/]+", ""));
         assertThat(preview).contains("last-month.csv").contains("rows in the file").contains("Save these figures");

@@ -42,6 +42,24 @@ final class UploadParser {
             "\\(?\\s*[+-]?\\s*(?<pre>\\p{Sc}|[A-Za-z]{2,3}\\.?)?\\s*[+-]?\\s*[\\d][\\d\\s\\u00A0\\u202F'’.,]*"
                     + "\\s*(?<post>\\p{Sc}|[A-Za-z]{2,3}\\.?)?\\s*[+-]?\\s*\\)?");
 
+    /**
+     * Digits separated by spaces or apostrophes must be groups of three ("1 234 567", "1'234.50"):
+     * "1 2 3" is not a number someone wrote.
+     */
+    private static boolean groupedByThousands(String s) {
+        java.util.regex.Matcher digits = Pattern.compile("\\d[\\d\\s\\u00A0\\u202F'’]*\\d").matcher(s);
+        if (!digits.find()) {
+            return true;
+        }
+        String[] groups = digits.group().split("[\\s\\u00A0\\u202F'’]+");
+        for (int i = 1; i < groups.length; i++) {
+            if (groups[i].length() != 3 || i == 1 && groups[0].length() > 3) {
+                return false;
+            }
+        }
+        return true;
+    }
+
     private static boolean currencyWord(String w) {
         if (w == null || w.isEmpty() || !Character.isLetter(w.charAt(0))) {
             return true; // absent, or a currency symbol
@@ -224,6 +242,9 @@ final class UploadParser {
         }
         java.util.regex.Matcher shape = AMOUNT_SHAPE.matcher(s);
         if (!shape.matches() || !currencyWord(shape.group("pre")) || !currencyWord(shape.group("post"))) {
+            return null;
+        }
+        if (!groupedByThousands(s)) {
             return null;
         }
         boolean negative = s.startsWith("(") && s.endsWith(")");

@@ -142,6 +142,10 @@ public class UploadService {
         if (!parsed.problems().isEmpty()) {
             throw new InvalidRequest("Some rows are rejected; fix the file and upload it again.", parsed.problems());
         }
+        if (parsed.figures().isEmpty()) {
+            throw new InvalidRequest("file", "the file holds no figures to save (no rows with a location, a period "
+                    + "and an amount)");
+        }
         Set<String> unknown = unknownCodes(parsed.figures());
         if (!unknown.isEmpty()) {
             if (!createLocations) {

@@ -59,6 +59,11 @@ class UploadParserTests {
         assertThat(UploadParser.parseAmount("1a2", UploadOptions.NumberStyle.POINT)).isNull();
         assertThat(UploadParser.parseAmount("about 12", UploadOptions.NumberStyle.POINT)).isNull();
         assertThat(UploadParser.parseAmount("12 xyz", UploadOptions.NumberStyle.POINT)).isNull();
+        // spaces and apostrophes group thousands, three digits a group (also found by fuzzing: "1 2 3 4 5" was 12345)
+        assertThat(UploadParser.parseAmount("1 234 567,50", UploadOptions.NumberStyle.COMMA)).isEqualByComparingTo("1234567.50");
+        assertThat(UploadParser.parseAmount("1 2 3 4 5", UploadOptions.NumberStyle.POINT)).isNull();
+        assertThat(UploadParser.parseAmount("12 34", UploadOptions.NumberStyle.POINT)).isNull();
+        assertThat(UploadParser.parseAmount("1234 567", UploadOptions.NumberStyle.POINT)).isNull();
     }
 
     @Test
