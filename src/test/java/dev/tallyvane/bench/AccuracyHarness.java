@@ -138,7 +138,11 @@ class AccuracyHarness {
                         v = Double.NaN;
                     }
                 }
-                fixed.computeIfAbsent(k.key(), x -> new double[cases.size()])[i] = v;
+                fixed.computeIfAbsent(k.key(), x -> {
+                    double[] none = new double[cases.size()];
+                    Arrays.fill(none, Double.NaN); // a method not offered for a series is not scored there
+                    return none;
+                })[i] = v;
                 if (v < hindsight[i]) {
                     hindsight[i] = v;
                     bestKey = k.key();
