@@ -8,6 +8,7 @@ import dev.tallyvane.engine.evaluation.Metric;
 import dev.tallyvane.engine.evaluation.RollingOriginBacktest;
 import dev.tallyvane.engine.model.Candidate;
 import dev.tallyvane.engine.model.Combination;
+import dev.tallyvane.engine.model.SeasonalNaive;
 import dev.tallyvane.engine.model.TradingDayRegression;
 import dev.tallyvane.engine.model.Croston;
 import dev.tallyvane.engine.model.FittedModel;
@@ -84,6 +85,19 @@ public final class ForecastEngine {
         }
         RollingOriginBacktest backtest = RollingOriginBacktest.plan(n, h, request.maxOrigins(),
                 request.originStep(), MINIMUM_TRAINING);
+        int seasonalNeeds = new SeasonalNaive().minimumHistory(m);
+        if (m >= 2 && n >= 2 * m && (backtest.originCount() == 0 || backtest.earliestTraining() < seasonalNeeds)) {
+            // two seasonal cycles, yet too short to test a seasonal method h periods ahead: compare on the
+            // lead times the data hold rather than leave every seasonal method out
+            RollingOriginBacktest shorter = RollingOriginBacktest.planAllLeadTimes(n, h, request.maxOrigins(),
+                    request.originStep(), Math.max(MINIMUM_TRAINING, seasonalNeeds));
+            if (shorter.originCount() > 0) {
+                backtest = shorter;
+                notes.add(String.format(Locale.ROOT, "%d periods are too few to test seasonal methods %d periods "
+                        + "ahead: all methods were compared on up to %d periods ahead instead", n, h,
+                        shorter.longestLeadTime(n)));
+            }
+        }
 
         List<Scored> scored = new ArrayList<>();
         List<LeaderboardEntry> unscored = new ArrayList<>();
@@ -136,8 +150,10 @@ public final class ForecastEngine {
         } else {
             chosen = winner.candidate;
             chosenOutcome = winner.outcome;
-            reason = String.format(Locale.ROOT, "Lowest %s over %d rolling origin%s, %d %s ahead.", metric.label(),
-                    backtest.originCount(), backtest.originCount() == 1 ? "" : "s", h, unit(series.granularity(), h));
+            int lead = backtest.allLeadTimes() ? backtest.longestLeadTime(n) : h;
+            reason = String.format(Locale.ROOT, "Lowest %s over %d rolling origin%s, %s%d %s ahead.", metric.label(),
+                    backtest.originCount(), backtest.originCount() == 1 ? "" : "s",
+                    backtest.allLeadTimes() ? "up to " : "", lead, unit(series.granularity(), lead));
         }
 
         List<LeaderboardEntry> board = new ArrayList<>();

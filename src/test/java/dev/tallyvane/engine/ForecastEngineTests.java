@@ -143,6 +143,30 @@ class ForecastEngineTests {
         assertThat(r.notes()).anyMatch(note -> note.contains("9 closed day(s) were left out"));
     }
 
+    /**
+     * Two years of monthly sales and a 12-month horizon: too short to test any seasonal method 12 months
+     * ahead, so the methods are compared on the lead times the data hold (origins up to the last month)
+     * instead of leaving every seasonal method out and choosing a flat one.
+     */
+    @Test
+    void twoCyclesTooShortForTheFullHorizonAreComparedOnTheLeadTimesTheyHold() {
+        double[] y = new double[24];
+        for (int t = 0; t < 24; t++) {
+            y[t] = 10_000 * (1 + 0.3 * Math.sin(2 * Math.PI * t / 12)) + 40 * t + ((t * 37) % 11 - 5) * 30;
+        }
+        ForecastResult r = ForecastEngine.forecast(monthly(y), ForecastRequest.of(12));
+        assertThat(r.notes()).anyMatch(n -> n.contains("too few to test seasonal methods 12 periods ahead"));
+        assertThat(r.reason()).isEqualTo("Lowest MSE over 6 rolling origins, up to 6 months ahead.");
+        assertThat(r.leaderboard()).anySatisfy(e -> {
+            assertThat(e.key()).isEqualTo("snaive");
+            assertThat(e.status()).isEqualTo(LeaderboardEntry.Status.SCORED);
+        });
+        assertThat(r.chosenKey()).isIn("snaive", "poly1s", "poly2s", "combo", "combo-median");
+        assertThat(r.forecasts()).hasSize(12);
+        // the forecast keeps the yearly shape: next March (peak) well above next September (trough)
+        assertThat(r.forecastAt(3).forecast()).isGreaterThan(r.forecastAt(9).forecast() + 3000);
+    }
+
     @Test
     void candidateSubsetAndCustomWeightsAreHonoured() {
         ForecastResult r = ForecastEngine.forecast(monthly(seasonalMonthly(36, 5)), ForecastRequest.of(3)

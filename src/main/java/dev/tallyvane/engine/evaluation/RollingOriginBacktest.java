@@ -18,10 +18,12 @@ public final class RollingOriginBacktest {
 
     private final int[] origins;
     private final int horizon;
+    private final boolean allLeadTimes;
 
-    private RollingOriginBacktest(int[] origins, int horizon) {
+    private RollingOriginBacktest(int[] origins, int horizon, boolean allLeadTimes) {
         this.origins = origins;
         this.horizon = horizon;
+        this.allLeadTimes = allLeadTimes;
     }
 
     /**
@@ -39,7 +41,37 @@ public final class RollingOriginBacktest {
         for (int i = 0; i < count; i++) {
             origins[i] = last - (count - 1 - i) * step;
         }
-        return new RollingOriginBacktest(origins, horizon);
+        return new RollingOriginBacktest(origins, horizon, false);
+    }
+
+    /**
+     * For a series too short to test at the full horizon: origins run up to the last period but
+     * one, and each is scored on the lead times the data still hold (Tashman 2000, §3: "all
+     * available lead times"), so errors at short lead times weigh more. Used only when the
+     * full-horizon plan would leave the seasonal methods out of a series with two seasonal cycles.
+     */
+    public static RollingOriginBacktest planAllLeadTimes(int n, int horizon, int maxOrigins, int step,
+            int minimumTraining) {
+        int last = n - 1;
+        int count = 0;
+        while (count < maxOrigins && last - count * step >= minimumTraining) {
+            count++;
+        }
+        int[] origins = new int[count];
+        for (int i = 0; i < count; i++) {
+            origins[i] = last - (count - 1 - i) * step;
+        }
+        return new RollingOriginBacktest(origins, horizon, true);
+    }
+
+    /** True when the origins are scored on every lead time the data hold rather than the full horizon. */
+    public boolean allLeadTimes() {
+        return allLeadTimes;
+    }
+
+    /** The longest lead time any origin is scored on. */
+    public int longestLeadTime(int n) {
+        return origins.length == 0 ? 0 : Math.min(horizon, n - origins[0]);
     }
 
     public int originCount() {

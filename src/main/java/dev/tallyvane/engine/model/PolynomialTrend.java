@@ -62,8 +62,10 @@ public final class PolynomialTrend implements Candidate {
 
     @Override
     public int minimumHistory(int seasonalPeriod) {
-        int p = columns(seasonalPeriod);
-        return seasonal ? Math.max(2 * seasonalPeriod, p + 3) : p + 3;
+        // p coefficients and three degrees of freedom left for the error; with seasonal dummies that is a
+        // cycle and a few periods: each season's level then rests on one or two values, so the fit is
+        // noisy, but only the rolling-origin test decides whether it is used
+        return columns(seasonalPeriod) + 3;
     }
 
     @Override
