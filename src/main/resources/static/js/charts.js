@@ -9,10 +9,11 @@
 
     var forecastEl = document.getElementById('forecast-chart');
     var accuracyEl = document.getElementById('accuracy-chart');
-    if (!forecastEl && !accuracyEl || typeof uPlot === 'undefined') {
+    var horizonEl = document.getElementById('horizon-chart');
+    if (!forecastEl && !accuracyEl && !horizonEl || typeof uPlot === 'undefined') {
         return;
     }
-    var src = (forecastEl || accuracyEl).getAttribute('data-src');
+    var src = (forecastEl || accuracyEl || horizonEl).getAttribute('data-src');
     var lang = document.documentElement.lang || navigator.language;
     var ink = '#1d2430', accent = '#1f5f8b', fittedColour = '#7a8595', earlierColour = '#a3271f';
 
@@ -106,6 +107,29 @@
         accuracyEl.setAttribute('data-ready', 'true');
     }
 
+    /** Accuracy by how far ahead the forecast was made: MAPE and the share inside the 80% range, per step. */
+    function drawHorizon(rows) {
+        var num = function (v) { return typeof v === 'number' && isFinite(v) ? v : null; };
+        var steps = rows.map(function (r) { return r.step; });
+        var opts = {
+            width: width(horizonEl), height: 200,
+            scales: {x: {time: false}},
+            series: [
+                {label: 'Periods ahead', value: function (u, v) { return v == null ? '–' : String(v); }},
+                {label: 'MAPE', stroke: accent, width: 2, value: percent},
+                {label: 'Inside 80% range', stroke: fittedColour, width: 1.5, dash: [4, 3], value: percent}
+            ],
+            axes: [{values: function (u, ticks) { return ticks.map(function (t) { return Number.isInteger(t) ? t : ''; }); }},
+                {values: function (u, ticks) { return ticks.map(function (t) { return t + '%'; }); }}]
+        };
+        var u = new uPlot(opts, [steps, rows.map(function (r) { return num(r.mape); }),
+            rows.map(function (r) { return num(r.coverage80); })], horizonEl);
+        keyboard(horizonEl, u);
+        resizeWith(horizonEl, u, 200);
+        horizonEl.setAttribute('data-points', String(steps.length));
+        horizonEl.setAttribute('data-ready', 'true');
+    }
+
     fetch(src, {credentials: 'same-origin', headers: {'Accept': 'application/json'}})
         .then(function (r) {
             if (!r.ok) { throw new Error('HTTP ' + r.status); }
@@ -114,9 +138,10 @@
         .then(function (d) {
             if (forecastEl && d.forecast) { drawForecast(d.forecast); }
             if (accuracyEl && d.accuracy && d.accuracy.x.length) { drawAccuracy(d.accuracy); }
+            if (horizonEl && d.accuracy && d.accuracy.byHorizon.length) { drawHorizon(d.accuracy.byHorizon); }
         })
         .catch(function (e) {
-            [forecastEl, accuracyEl].forEach(function (el) {
+            [forecastEl, accuracyEl, horizonEl].forEach(function (el) {
                 if (el) {
                     el.textContent = 'The chart could not be loaded (' + e.message + '); the table below has the numbers.';
                     el.setAttribute('data-ready', 'error');

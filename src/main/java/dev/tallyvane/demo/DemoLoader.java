@@ -45,6 +45,7 @@ class DemoLoader implements ApplicationRunner {
 
     private final boolean enabled;
     private final String url;
+    private final org.springframework.core.env.Environment environment;
     private final UserService users;
     private final LocationService locations;
     private final IntakeService intake;
@@ -54,15 +55,28 @@ class DemoLoader implements ApplicationRunner {
 
     DemoLoader(@Value("${tallyvane.demo.enabled:false}") boolean enabled,
             @Value("${tallyvane.summary.dashboard-url:http://localhost:8080}") String url, UserService users,
-            LocationService locations, IntakeService intake, RefitService refits, SettingsService settings, Clock clock) {
+            LocationService locations, IntakeService intake, RefitService refits, SettingsService settings, Clock clock,
+            org.springframework.core.env.Environment environment) {
         this.enabled = enabled;
         this.url = url;
+        this.environment = environment;
         this.users = users;
         this.locations = locations;
         this.intake = intake;
         this.refits = refits;
         this.settings = settings;
         this.clock = clock;
+    }
+
+    /**
+     * Where to open the service: the configured public address, or, when none is configured, this
+     * machine with the port the server really listens on (it may not be 8080).
+     */
+    private String address() {
+        String port = environment.getProperty("local.server.port");
+        boolean configured = environment.containsProperty("TALLYVANE_PUBLIC_URL")
+                || !url.equals("http://localhost:8080");
+        return configured || port == null ? url : "http://localhost:" + port;
     }
 
     @Override
@@ -102,7 +116,7 @@ class DemoLoader implements ApplicationRunner {
                    bookkeeper / {}
                    viewer     / {}
                  Loaded in {} s; the latest forecasts follow within a minute.
-                ==============================================================""", url, passwords.get(Role.OWNER),
+                ==============================================================""", address(), passwords.get(Role.OWNER),
                 passwords.get(Role.BOOKKEEPER), passwords.get(Role.VIEWER), (System.nanoTime() - t0) / 1_000_000_000);
     }
 

@@ -42,6 +42,8 @@ class NewcomerEndToEndTests {
             Thread.sleep(500);
         }
         String text = Files.readString(service.console);
+        assertThat(text).as("the console names the port the service really listens on")
+                .contains("Open http://localhost:" + service.port + " and sign in as");
         ownerPassword = grab(text, "owner      / (\\S+)");
         bookkeeperPassword = grab(text, "bookkeeper / (\\S+)");
     }

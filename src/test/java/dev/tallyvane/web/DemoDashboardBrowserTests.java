@@ -102,6 +102,9 @@ class DemoDashboardBrowserTests {
         WebElement chart = browser.await("#forecast-chart[data-ready=true]", 20);
         assertThat(Integer.parseInt(chart.getAttribute("data-points"))).isGreaterThan(100);
         assertThat(browser.await("#accuracy-chart[data-ready=true]", 20).getAttribute("data-points")).isNotEqualTo("0");
+        // accuracy by how far ahead: one point per step, as many as the table's rows
+        assertThat(browser.await("#horizon-chart[data-ready=true]", 20).getAttribute("data-points"))
+                .isEqualTo(String.valueOf(browser.all("#by-horizon tbody tr").size())).isNotEqualTo("0");
         browser.screenshot("location-demo");
 
         // a phone: the overview stacks its cells instead of scrolling sideways
