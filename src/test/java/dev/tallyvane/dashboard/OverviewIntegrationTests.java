@@ -154,6 +154,18 @@ class OverviewIntegrationTests {
         String detail = mvc.perform(get("/locations/L007").with(owner)).andExpect(status().isOk()).andReturn()
                 .getResponse().getContentAsString();
         assertThat(detail).doesNotContain("<script>alert").contains("&lt;script&gt;");
+        // a hostile file name, on the upload history and the preview
+        String evil = "<img src=x onerror=alert(1)>.csv";
+        String preview = mvc.perform(org.springframework.test.web.servlet.request.MockMvcRequestBuilders.multipart("/uploads")
+                        .file(new org.springframework.mock.web.MockMultipartFile("file", evil, "text/csv",
+                                "location,period,amount\nL001,2026-11-30,5\n".getBytes(java.nio.charset.StandardCharsets.UTF_8)))
+                        .with(bookkeeper).with(csrf()))
+                .andExpect(status().isFound()).andReturn().getResponse().getRedirectedUrl();
+        for (String page : List.of(preview, "/uploads")) {
+            String body = mvc.perform(get(page).with(bookkeeper)).andExpect(status().isOk()).andReturn().getResponse()
+                    .getContentAsString();
+            assertThat(body).as(page).doesNotContain("<img src=x").contains("&lt;img src=x onerror=alert(1)&gt;.csv");
+        }
         // the weekly e-mail lists every location by name: escaped there too
         String mail = mvc.perform(get("/email/preview").param("week", "2026-11-23").with(owner)).andExpect(status().isOk())
                 .andReturn().getResponse().getContentAsString();
