@@ -106,6 +106,9 @@ class DemoDashboardBrowserTests {
         assertThat(browser.await("#horizon-chart[data-ready=true]", 20).getAttribute("data-points"))
                 .isEqualTo(String.valueOf(browser.all("#by-horizon tbody tr").size())).isNotEqualTo("0");
         browser.screenshot("location-demo");
+        browser.fitHeight();
+        browser.screenshot("location-demo-full");
+        browser.driver().manage().window().setSize(new Dimension(1366, 1000));
 
         // a phone: the overview stacks its cells instead of scrolling sideways
         browser.driver().manage().window().setSize(new Dimension(390, 844));
