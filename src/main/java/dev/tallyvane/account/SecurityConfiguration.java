@@ -143,8 +143,8 @@ class SecurityConfiguration {
                     }
                     response.setHeader("Retry-After", "10");
                     problem(response, 503, "database-unavailable", "Temporarily unavailable",
-                            "The database cannot be reached just now; nothing was saved. Send the same request again "
-                                    + "in a few seconds.");
+                            "The database is busy or cannot be reached just now; nothing was saved. Send the same "
+                                    + "request again in a few seconds.");
                     return;
                 }
                 if (client.isEmpty()) {

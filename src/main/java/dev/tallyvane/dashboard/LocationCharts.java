@@ -50,18 +50,27 @@ public class LocationCharts {
             List<Double> mape, List<Double> mae, List<ByHorizon> byHorizon) {
     }
 
+    /** Both charts of a location. {@code forecast} is empty until the location has a forecast. */
+    public record Charts(Optional<ForecastChart> forecast, AccuracyChart accuracy) {
+    }
+
+    /** Reads the current forecast and the one-step errors once and draws both charts from them. */
     @Transactional(readOnly = true)
-    public Optional<ForecastChart> forecast(Location location) {
-        String measure = FigureRules.DEFAULT_MEASURE;
-        Optional<IssuedForecast> current = refits.current(location.getId(), measure);
-        if (current.isEmpty()) {
-            return Optional.empty();
-        }
-        IssuedForecast f = current.get();
-        List<FittedHistory.Point> history = refits.fittedHistory(location.getId(), measure)
+    public Charts of(Location location, Optional<IssuedForecast> current) {
+        List<StepOne> errors = accuracy.stepOneErrors(location.getId(), FigureRules.DEFAULT_MEASURE);
+        return new Charts(current.map(f -> forecast(location, f, errors)), accuracy(location, errors));
+    }
+
+    @Transactional(readOnly = true)
+    public Charts of(Location location) {
+        return of(location, refits.current(location.getId(), FigureRules.DEFAULT_MEASURE));
+    }
+
+    private ForecastChart forecast(Location location, IssuedForecast f, List<StepOne> errors) {
+        List<FittedHistory.Point> history = refits.fittedHistory(location.getId(), FigureRules.DEFAULT_MEASURE)
                 .filter(h -> h.issuedId() == f.id()).map(FittedHistory::points).orElse(List.of());
         Map<LocalDate, Double> earlierByPeriod = new HashMap<>();
-        for (StepOne e : accuracy.stepOneErrors(location.getId(), measure)) {
+        for (StepOne e : errors) {
             earlierByPeriod.put(e.period(), e.forecast());
         }
         TreeSet<LocalDate> axis = new TreeSet<>();
@@ -100,14 +109,11 @@ public class LocationCharts {
             lo95.add(open ? p.lo95() : null);
             hi95.add(open ? p.hi95() : null);
         }
-        return Optional.of(new ForecastChart(location.getCurrency(), f.granularity().toLowerCase(java.util.Locale.ROOT),
-                f.chosenName(), periods, x, actual, fitted, earlier, forecast, lo80, hi80, lo95, hi95));
+        return new ForecastChart(location.getCurrency(), f.granularity().toLowerCase(java.util.Locale.ROOT),
+                f.chosenName(), periods, x, actual, fitted, earlier, forecast, lo80, hi80, lo95, hi95);
     }
 
-    @Transactional(readOnly = true)
-    public AccuracyChart accuracy(Location location) {
-        String measure = FigureRules.DEFAULT_MEASURE;
-        List<StepOne> errors = accuracy.stepOneErrors(location.getId(), measure);
+    private AccuracyChart accuracy(Location location, List<StepOne> errors) {
         String granularity = errors.isEmpty() ? "" : errors.get(0).granularity().toLowerCase(java.util.Locale.ROOT);
         int window = switch (granularity) {
             case "day" -> 28;
@@ -126,6 +132,6 @@ public class LocationCharts {
             mae.add(Double.isFinite(r.mae()) ? r.mae() : null);
         }
         return new AccuracyChart(location.getCurrency(), granularity, window, x, periods, mape, mae,
-                accuracy.byHorizon(location.getId(), measure));
+                accuracy.byHorizon(location.getId(), FigureRules.DEFAULT_MEASURE));
     }
 }

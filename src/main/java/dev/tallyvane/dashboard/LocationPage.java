@@ -50,8 +50,9 @@ public class LocationPage {
     public Content of(Location l) {
         String measure = FigureRules.DEFAULT_MEASURE;
         Optional<IssuedForecast> f = refits.current(l.getId(), measure);
+        LocationCharts.Charts drawn = charts.of(l, f);
         return new Content(f.orElse(null), f.map(x -> Leaderboard.of(x, json)).orElse(null),
-                refits.lastOutcome(l.getId(), measure).orElse(null), charts.forecast(l).orElse(null),
-                charts.accuracy(l), accuracy.flags(l.getId(), false), figures.recent(l.getId(), 60));
+                refits.lastOutcome(l.getId(), measure).orElse(null), drawn.forecast().orElse(null),
+                drawn.accuracy(), accuracy.flags(l.getId(), false), figures.recent(l.getId(), 60));
     }
 }

@@ -93,6 +93,21 @@ public class Overview {
         return frozen;
     }
 
+    /** How a choice appears in the page's address: {@code NO_FORECAST} → {@code no-forecast}. */
+    static String param(Enum<?> e) {
+        return e.name().toLowerCase(Locale.ROOT).replace('_', '-');
+    }
+
+    /** The choice named in the address, or {@code fallback} for anything else. */
+    static <E extends Enum<E>> E parse(Class<E> type, String text, E fallback) {
+        for (E v : type.getEnumConstants()) {
+            if (param(v).equalsIgnoreCase(text == null ? "" : text.trim())) {
+                return v;
+            }
+        }
+        return fallback;
+    }
+
     /** Which locations to show. */
     public enum Show {
         ALL("all locations"), FLAGGED("with an open drift flag"), NO_FORECAST("without a forecast yet"),
@@ -109,16 +124,7 @@ public class Overview {
         }
 
         public String param() {
-            return name().toLowerCase(Locale.ROOT).replace('_', '-');
-        }
-
-        static Show of(String s) {
-            for (Show v : values()) {
-                if (v.param().equalsIgnoreCase(s == null ? "" : s.trim())) {
-                    return v;
-                }
-            }
-            return ALL;
+            return Overview.param(this);
         }
     }
 
@@ -142,16 +148,7 @@ public class Overview {
         }
 
         public String param() {
-            return name().toLowerCase(Locale.ROOT);
-        }
-
-        static Sort of(String s) {
-            for (Sort v : values()) {
-                if (v.param().equalsIgnoreCase(s == null ? "" : s.trim())) {
-                    return v;
-                }
-            }
-            return CODE;
+            return Overview.param(this);
         }
     }
 
@@ -159,7 +156,8 @@ public class Overview {
     public record Query(String search, Show show, Sort sort, boolean descending, int page) {
 
         public static Query of(String search, String show, String sort, String dir, Integer page) {
-            return new Query(search == null ? "" : search.trim(), Show.of(show), Sort.of(sort),
+            return new Query(search == null ? "" : search.trim(), parse(Show.class, show, Show.ALL),
+                    parse(Sort.class, sort, Sort.CODE),
                     "desc".equalsIgnoreCase(dir), page == null || page < 1 ? 1 : page);
         }
     }

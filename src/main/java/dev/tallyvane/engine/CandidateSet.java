@@ -82,17 +82,27 @@ public final class CandidateSet {
      * weekly and monthly seasons alike), sorted by key; includes the combination.
      */
     public static java.util.SortedMap<String, String> catalogue() {
-        java.util.SortedMap<String, String> names = new java.util.TreeMap<>();
-        for (Combination.Rule rule : Combination.Rule.values()) {
-            names.put(rule.key(), rule.generalName());
-        }
-        names.put(TradingDayRegression.KEY, "Trend with seasonal dummies and trading days (monthly figures)");
-        for (int m : new int[] {7, 12, 52}) {
-            for (Candidate c : all(m, new double[] {1.0}, true)) {
-                names.putIfAbsent(c.key(), c.key().equals("wma") ? "Weighted moving average with your weights" : c.name());
+        return Catalogue.NAMES;
+    }
+
+    /** Built once, on first use (settings are checked and candidates selected on every re-fit). */
+    private static final class Catalogue {
+        static final java.util.SortedMap<String, String> NAMES = build();
+
+        private static java.util.SortedMap<String, String> build() {
+            java.util.SortedMap<String, String> names = new java.util.TreeMap<>();
+            for (Combination.Rule rule : Combination.Rule.values()) {
+                names.put(rule.key(), rule.generalName());
             }
+            names.put(TradingDayRegression.KEY, "Trend with seasonal dummies and trading days (monthly figures)");
+            for (int m : new int[] {7, 12, 52}) {
+                for (Candidate c : all(m, new double[] {1.0}, true)) {
+                    names.putIfAbsent(c.key(), c.key().equals("wma") ? "Weighted moving average with your weights"
+                            : c.name());
+                }
+            }
+            return java.util.Collections.unmodifiableSortedMap(names);
         }
-        return java.util.Collections.unmodifiableSortedMap(names);
     }
 
     /** {@link #all} narrowed to {@code keys} (empty = all). */

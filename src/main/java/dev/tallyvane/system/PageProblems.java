@@ -23,28 +23,24 @@ class PageProblems {
         return mv;
     }
 
-    /** The database cannot be reached: say so, and that nothing was saved, instead of a bare error. */
-    @ExceptionHandler({org.springframework.dao.DataAccessResourceFailureException.class,
-            org.springframework.dao.TransientDataAccessException.class,
-            org.springframework.transaction.CannotCreateTransactionException.class})
-    ModelAndView databaseUnavailable(Exception e, jakarta.servlet.http.HttpServletResponse response) {
-        ModelAndView mv = new ModelAndView("error/problem");
-        mv.setStatus(HttpStatusCode.valueOf(503));
-        response.setHeader("Retry-After", "10");
-        mv.addObject("title", "Temporarily unavailable");
-        mv.addObject("message", "The database cannot be reached just now, so nothing was saved. Please try again in "
-                + "a few seconds.");
-        return mv;
-    }
-
-    /** Any other failure caused by a lost database connection (e.g. a failed rollback) is the same outage. */
+    /**
+     * A failure caused by the database being away or busy (see {@link DatabaseOutage}; it may come
+     * wrapped, e.g. as a failed rollback): say so, and that nothing was saved. Anything else goes on
+     * to the error page.
+     */
     @ExceptionHandler(org.springframework.core.NestedRuntimeException.class)
-    ModelAndView wrappedOutage(org.springframework.core.NestedRuntimeException e,
+    ModelAndView databaseUnavailable(org.springframework.core.NestedRuntimeException e,
             jakarta.servlet.http.HttpServletResponse response) throws org.springframework.core.NestedRuntimeException {
         if (!DatabaseOutage.isOutage(e)) {
             throw e;
         }
-        return databaseUnavailable(e, response);
+        ModelAndView mv = new ModelAndView("error/problem");
+        mv.setStatus(HttpStatusCode.valueOf(503));
+        response.setHeader("Retry-After", "10");
+        mv.addObject("title", "Temporarily unavailable");
+        mv.addObject("message", "The database is busy or cannot be reached just now, so nothing was saved. Please try "
+                + "again in a few seconds.");
+        return mv;
     }
 
     @ExceptionHandler(InvalidRequest.class)

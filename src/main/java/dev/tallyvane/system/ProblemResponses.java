@@ -84,17 +84,15 @@ public class ProblemResponses {
     }
 
     /**
-     * The database cannot be reached (restarting, network, pool exhausted): 503 with Retry-After, so
-     * a till retries; nothing was saved because the transaction never committed.
+     * The database cannot be reached or is busy (restarting, network, pool exhausted, lock timeout;
+     * see {@link DatabaseOutage}): 503 with Retry-After, so a till retries; nothing was saved because
+     * the transaction never committed.
      */
-    @ExceptionHandler({org.springframework.dao.DataAccessResourceFailureException.class,
-            org.springframework.dao.TransientDataAccessException.class,
-            org.springframework.transaction.CannotCreateTransactionException.class})
-    ResponseEntity<ProblemDetail> databaseUnavailable(Exception e, HttpServletRequest request) {
+    private ResponseEntity<ProblemDetail> databaseUnavailable(Exception e, HttpServletRequest request) {
         log.warn("database unavailable on {} {}: {}", request.getMethod(), request.getRequestURI(), rootMessage(e));
         return ResponseEntity.status(HttpStatus.SERVICE_UNAVAILABLE).header("Retry-After", "10").body(problem(
                 HttpStatus.SERVICE_UNAVAILABLE, "database-unavailable", "Temporarily unavailable",
-                "The database cannot be reached just now; nothing was saved. Send the same request again in a few "
+                "The database is busy or cannot be reached just now; nothing was saved. Send the same request again in a few "
                         + "seconds (with the same Idempotency-Key, if you used one)."));
     }
 

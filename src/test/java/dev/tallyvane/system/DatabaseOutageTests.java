@@ -15,6 +15,8 @@ class DatabaseOutageTests {
         var rollback = new JpaSystemException(new RuntimeException("Unable to rollback against JDBC Connection",
                 new SQLException("Connection is closed")));
         assertThat(DatabaseOutage.isOutage(rollback)).isTrue();
+        // SQLSTATE codes: PostgreSQL Documentation, Appendix A "PostgreSQL Error Codes" (class 08 Connection
+        // Exception, 08001 sqlclient_unable_to_establish_sqlconnection; class 57, 57P01 admin_shutdown)
         assertThat(DatabaseOutage.isOutage(new SQLException("terminating connection due to administrator command",
                 "57P01"))).isTrue();
         assertThat(DatabaseOutage.isOutage(new RuntimeException(new SQLException("refused", "08001")))).isTrue();
@@ -23,6 +25,7 @@ class DatabaseOutageTests {
 
     @Test
     void otherFailuresAreNot() {
+        // 23505 unique_violation (same appendix): a real conflict, not an outage
         assertThat(DatabaseOutage.isOutage(new SQLException("duplicate key", "23505"))).isFalse();
         assertThat(DatabaseOutage.isOutage(new IllegalStateException("bug"))).isFalse();
         assertThat(DatabaseOutage.isOutage(new JpaSystemException(new RuntimeException("mapping")))).isFalse();

@@ -1,8 +1,6 @@
 package dev.tallyvane.dashboard.web;
 
 import dev.tallyvane.dashboard.LocationCharts;
-import dev.tallyvane.dashboard.LocationCharts.AccuracyChart;
-import dev.tallyvane.dashboard.LocationCharts.ForecastChart;
 import dev.tallyvane.dashboard.LocationPage;
 import dev.tallyvane.engine.CandidateSet;
 import dev.tallyvane.engine.evaluation.Metric;
@@ -15,7 +13,6 @@ import dev.tallyvane.location.web.LocationForm;
 import dev.tallyvane.system.InvalidRequest;
 import java.security.Principal;
 import java.util.Map;
-import java.util.Optional;
 import org.springframework.stereotype.Controller;
 import org.springframework.ui.Model;
 import org.springframework.web.bind.annotation.GetMapping;
@@ -54,15 +51,10 @@ class LocationPageController {
         return "locations/detail";
     }
 
-    /** Numbers of both charts. */
-    record Charts(Optional<ForecastChart> forecast, AccuracyChart accuracy) {
-    }
-
     @GetMapping(value = "/locations/{code}/charts.json", produces = "application/json")
     @ResponseBody
-    Charts charts(@PathVariable String code) {
-        Location l = locations.byCode(code);
-        return new Charts(charts.forecast(l), charts.accuracy(l));
+    LocationCharts.Charts charts(@PathVariable String code) {
+        return charts.of(locations.byCode(code));
     }
 
     @PostMapping("/locations/{code}")

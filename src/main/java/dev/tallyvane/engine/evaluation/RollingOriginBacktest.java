@@ -32,7 +32,11 @@ public final class RollingOriginBacktest {
      * one origin does not fit.
      */
     public static RollingOriginBacktest plan(int n, int horizon, int maxOrigins, int step, int minimumTraining) {
-        int last = n - horizon;
+        return new RollingOriginBacktest(origins(n - horizon, maxOrigins, step, minimumTraining), horizon, false);
+    }
+
+    /** Up to {@code maxOrigins} origins {@code step} apart ending at {@code last}, none below {@code minimumTraining}. */
+    private static int[] origins(int last, int maxOrigins, int step, int minimumTraining) {
         int count = 0;
         while (count < maxOrigins && last - count * step >= minimumTraining) {
             count++;
@@ -41,27 +45,18 @@ public final class RollingOriginBacktest {
         for (int i = 0; i < count; i++) {
             origins[i] = last - (count - 1 - i) * step;
         }
-        return new RollingOriginBacktest(origins, horizon, false);
+        return origins;
     }
 
     /**
      * For a series too short to test at the full horizon: origins run up to the last period but
-     * one, and each is scored on the lead times the data still hold (Tashman 2000, §3: "all
-     * available lead times"), so errors at short lead times weigh more. Used only when the
+     * one, and each is scored on the lead times the data still hold (Tashman 2000 discusses
+     * scoring every available lead time), so errors at short lead times weigh more. Used only when the
      * full-horizon plan would leave the seasonal methods out of a series with two seasonal cycles.
      */
     public static RollingOriginBacktest planAllLeadTimes(int n, int horizon, int maxOrigins, int step,
             int minimumTraining) {
-        int last = n - 1;
-        int count = 0;
-        while (count < maxOrigins && last - count * step >= minimumTraining) {
-            count++;
-        }
-        int[] origins = new int[count];
-        for (int i = 0; i < count; i++) {
-            origins[i] = last - (count - 1 - i) * step;
-        }
-        return new RollingOriginBacktest(origins, horizon, true);
+        return new RollingOriginBacktest(origins(n - 1, maxOrigins, step, minimumTraining), horizon, true);
     }
 
     /** True when the origins are scored on every lead time the data hold rather than the full horizon. */

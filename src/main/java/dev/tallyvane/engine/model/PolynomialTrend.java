@@ -56,7 +56,8 @@ public final class PolynomialTrend implements Candidate {
         return degree + 1 + (seasonal ? 10 : 0); // seasonal dummies add m − 1 parameters; 10 ranks them
     }
 
-    private int columns(int m) {
+    /** Coefficients: the polynomial's and, when seasonal, m − 1 dummies. */
+    int columns(int m) {
         return degree + 1 + (seasonal ? m - 1 : 0);
     }
 
@@ -77,7 +78,7 @@ public final class PolynomialTrend implements Candidate {
         Residuals.requireLength(y, minimumHistory(m), name());
         int n = y.length;
         double centre = (n - 1) / 2.0;
-        java.util.function.IntFunction<double[]> row = t -> row(t, n, centre, m);
+        java.util.function.IntFunction<double[]> row = t -> row(t, centre, m);
         LeastSquares.Fit fit = Regression.leastSquares(y, row, 3);
         Map<String, Double> params = new LinkedHashMap<>();
         double[] b = fit.coefficients();
@@ -87,7 +88,8 @@ public final class PolynomialTrend implements Candidate {
         return Regression.model(y, row, fit, params, name() + " (time centred and scaled)");
     }
 
-    private double[] row(int t, int n, double centre, int m) {
+    /** The design row of period t: powers of the centred time u_t, then the season's dummy. */
+    double[] row(int t, double centre, int m) {
         double[] r = new double[columns(m)];
         double u = centre == 0 ? 0 : (t - centre) / centre;
         double power = 1;

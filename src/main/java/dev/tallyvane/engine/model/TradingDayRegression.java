@@ -15,10 +15,10 @@ import java.util.Map;
  * </pre>
  * N_{k,t} is the number of weekday k in month t (4 or 5), u_t time centred and scaled to [−1, 1],
  * LY_t = 1 in a leap-year February (the length of month beyond what the dummies carry; without
- * seasonal dummies the length minus 30.4375 days). With the month's length so carried and daily sales a_k on
- * weekday k the contrast coefficients are τ_k = a_k − ā, each weekday against the average day
- * (Bell &amp; Hillmer 1983, §2). Coefficients and
- * prediction intervals as for the other regressions ({@link Regression}); the engine uses it only
+ * seasonal dummies the length minus 30.4375 days). With the month's length so carried and daily
+ * sales a_k on weekday k, the contrast coefficients are τ_k = a_k − ā, each weekday against the
+ * average day: Σ_k a_k N_k = ā·L + Σ_{k≠Sun} (a_k − ā)(N_k − N_Sun), since L = Σ_k N_k. Coefficients
+ * and prediction intervals as for the other regressions ({@link Regression}); the engine uses it only
  * where it wins the rolling-origin test.
  *
  * <p>Reference: Bell, W. R. &amp; Hillmer, S. C., "Modeling time series with calendar variation",
@@ -54,8 +54,13 @@ public final class TradingDayRegression implements Candidate {
         return 2 + 10 + 7;
     }
 
+    /** Trend and seasonal dummies as {@link PolynomialTrend} builds them (degree 1, dummies when m ≥ 2). */
+    private static PolynomialTrend trend(int m) {
+        return new PolynomialTrend(1, m >= 2);
+    }
+
     private static int columns(int m) {
-        return 2 + (m >= 2 ? m - 1 : 0) + CONTRASTS.length + 1;
+        return trend(m).columns(m) + CONTRASTS.length + 1;
     }
 
     @Override
@@ -74,25 +79,19 @@ public final class TradingDayRegression implements Candidate {
         return counts;
     }
 
-    private double[] row(int t, int n, double centre, int m) {
-        double[] x = new double[columns(m)];
-        int c = 0;
-        x[c++] = 1;
-        x[c++] = centre > 0 ? (t - centre) / centre : 0;
-        if (m >= 2) {
-            int season = t % m;
-            for (int j = 1; j < m; j++) {
-                x[c++] = season == j ? 1 : 0;
-            }
-        }
-        int[] counts = weekdayCounts(first.plusMonths(t));
+    /** The trend-and-dummies row followed by the six weekday contrasts and the month-length column. */
+    private double[] row(PolynomialTrend trend, int t, double centre, int m) {
+        double[] base = trend.row(t, centre, m);
+        double[] x = java.util.Arrays.copyOf(base, base.length + CONTRASTS.length + 1);
+        int c = base.length;
+        YearMonth month = first.plusMonths(t);
+        int[] counts = weekdayCounts(month);
         int sunday = counts[DayOfWeek.SUNDAY.ordinal()];
         for (DayOfWeek k : CONTRASTS) {
             x[c++] = counts[k.ordinal()] - sunday;
         }
         // the month's length beyond what the seasonal dummies carry: the leap day (or, without
         // seasonal dummies, the length against the average month of 30.4375 days)
-        YearMonth month = first.plusMonths(t);
         x[c] = m == 12 ? (month.getMonthValue() == 2 && month.isLeapYear() ? 1 : 0) : month.lengthOfMonth() - 30.4375;
         return x;
     }
@@ -101,13 +100,13 @@ public final class TradingDayRegression implements Candidate {
     public FittedModel fit(double[] y, int seasonalPeriod) {
         int m = seasonalPeriod;
         Residuals.requireLength(y, minimumHistory(m), name());
-        int n = y.length;
-        double centre = (n - 1) / 2.0;
-        java.util.function.IntFunction<double[]> row = t -> row(t, n, centre, m);
+        double centre = (y.length - 1) / 2.0;
+        PolynomialTrend trend = trend(m);
+        java.util.function.IntFunction<double[]> row = t -> row(trend, t, centre, m);
         LeastSquares.Fit fit = Regression.leastSquares(y, row, 3);
         Map<String, Double> params = new LinkedHashMap<>();
         double[] beta = fit.coefficients();
-        int offset = 2 + (m >= 2 ? m - 1 : 0);
+        int offset = trend.columns(m);
         for (int k = 0; k < CONTRASTS.length; k++) {
             params.put("tradingDay" + CONTRASTS[k].getDisplayName(java.time.format.TextStyle.SHORT,
                     java.util.Locale.ROOT), beta[offset + k]);

@@ -46,12 +46,15 @@ final class UploadParser {
      * Digits separated by spaces or apostrophes must be groups of three ("1 234 567", "1'234.50"):
      * "1 2 3" is not a number someone wrote.
      */
+    private static final Pattern GROUPED_DIGITS = Pattern.compile("\\d[\\d\\s\\u00A0\\u202F'’]*\\d");
+    private static final Pattern GROUP_MARK = Pattern.compile("[\\s\\u00A0\\u202F'’]+");
+
     private static boolean groupedByThousands(String s) {
-        java.util.regex.Matcher digits = Pattern.compile("\\d[\\d\\s\\u00A0\\u202F'’]*\\d").matcher(s);
+        java.util.regex.Matcher digits = GROUPED_DIGITS.matcher(s);
         if (!digits.find()) {
             return true;
         }
-        String[] groups = digits.group().split("[\\s\\u00A0\\u202F'’]+");
+        String[] groups = GROUP_MARK.split(digits.group());
         for (int i = 1; i < groups.length; i++) {
             if (groups[i].length() != 3 || i == 1 && groups[0].length() > 3) {
                 return false;

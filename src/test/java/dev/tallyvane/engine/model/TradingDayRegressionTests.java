@@ -68,7 +68,8 @@ class TradingDayRegressionTests {
         double[] y = shop(first, 84, 7, 50);
         FittedModel f = new TradingDayRegression(first).fit(y, 12);
         // With the month's length carried by the seasonal dummies, the contrast coefficients are each
-        // weekday's sales minus the average day's, τ_k = a_k − ā (Bell & Hillmer 1983, §2):
+        // weekday's sales minus the average day's, τ_k = a_k − ā (derived in TradingDayRegression's Javadoc;
+        // the contrast design is Bell & Hillmer's, JASA 78, 1983):
         // ā = (4 × 1,000 + 1,400 + 2,200 + 600) / 7 = 8,200 / 7 ≈ 1,171.4. Tolerance: a few standard
         // errors of the fit (noise sd 50 on 84 months; each contrast is −1, 0 or 1).
         double mean = 8200 / 7.0;
