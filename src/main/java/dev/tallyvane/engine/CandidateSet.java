@@ -11,6 +11,7 @@ import dev.tallyvane.engine.model.HistoricalMean;
 import dev.tallyvane.engine.model.MovingAverage;
 import dev.tallyvane.engine.model.Naive;
 import dev.tallyvane.engine.model.PolynomialTrend;
+import dev.tallyvane.engine.model.SeasonalArima;
 import dev.tallyvane.engine.model.SeasonalNaive;
 import dev.tallyvane.engine.model.Theta;
 import dev.tallyvane.engine.model.WeightedMovingAverage;
@@ -69,6 +70,7 @@ public final class CandidateSet {
         }
         list.add(new ExponentialSmoothing());
         list.add(new Theta());
+        list.add(new SeasonalArima());
         return list;
     }
 

@@ -221,25 +221,23 @@ public final class ForecastEngine {
                 continue;
             }
             double mean = pf.mean()[step - 1];
-            double sd;
-            double df;
             if (source == IntervalSource.ANALYTIC) {
-                sd = pf.sd() == null ? Double.NaN : pf.sd()[step - 1];
-                df = pf.degreesOfFreedom();
-            } else {
-                double r = outcome.rmseAt(step);
-                int count = outcome.countByStep()[step - 1];
-                if (Double.isFinite(r)) {
-                    runningSd = Math.max(runningSd, r);
-                    lastDf = Math.max(1, count);
-                }
-                sd = runningSd;
-                df = lastDf;
+                double df = pf.degreesOfFreedom();
+                double[] i80 = pf.interval(step, quantile(0.90, df));
+                double[] i95 = pf.interval(step, quantile(0.975, df));
+                out.add(new ForecastPoint(period, label, mean, i80[0], i80[1], i95[0], i95[1], false));
+                continue;
             }
-            double z80 = quantile(0.90, df);
-            double z95 = quantile(0.975, df);
-            out.add(new ForecastPoint(period, label, mean, mean - z80 * sd, mean + z80 * sd, mean - z95 * sd,
-                    mean + z95 * sd, false));
+            double r = outcome.rmseAt(step);
+            int count = outcome.countByStep()[step - 1];
+            if (Double.isFinite(r)) {
+                runningSd = Math.max(runningSd, r);
+                lastDf = Math.max(1, count);
+            }
+            double z80 = quantile(0.90, lastDf);
+            double z95 = quantile(0.975, lastDf);
+            out.add(new ForecastPoint(period, label, mean, mean - z80 * runningSd, mean + z80 * runningSd,
+                    mean - z95 * runningSd, mean + z95 * runningSd, false));
         }
         return out;
     }

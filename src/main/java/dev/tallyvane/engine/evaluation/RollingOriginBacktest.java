@@ -13,6 +13,7 @@ import dev.tallyvane.engine.model.PointForecast;
  * error. All candidates use the same origins, so their scores are comparable. Origins are spaced
  * {@code step} periods apart and end h periods before the data do:
  * <pre>  T_i = n − h − (o − i)·step,  i = 1..o</pre>
+ * A candidate may settle its structure once on the earliest window ({@link Candidate#forOrigins}).
  */
 public final class RollingOriginBacktest {
 
@@ -104,9 +105,11 @@ public final class RollingOriginBacktest {
      */
     public Outcome run(Candidate candidate, double[] y, boolean[] scorable, int seasonalPeriod) {
         double[][] forecasts = new double[origins.length][];
+        Candidate atOrigins = origins.length == 0 ? candidate
+                : candidate.forOrigins(java.util.Arrays.copyOf(y, origins[0]), seasonalPeriod);
         for (int i = 0; i < origins.length; i++) {
             double[] training = java.util.Arrays.copyOf(y, origins[i]);
-            PointForecast f = candidate.fit(training, seasonalPeriod).forecast(horizon);
+            PointForecast f = atOrigins.fit(training, seasonalPeriod).forecast(horizon);
             forecasts[i] = f.mean();
         }
         return score(forecasts, y, scorable, seasonalPeriod);

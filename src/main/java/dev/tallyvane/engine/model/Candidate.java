@@ -25,6 +25,16 @@ public interface Candidate {
     /** The fewest periods this candidate needs to be fitted, given the seasonal period m. */
     int minimumHistory(int seasonalPeriod);
 
+    /**
+     * This candidate as it is to be re-fitted at every origin of one backtest whose earliest training
+     * window is {@code earliestTraining}. A candidate with costly structural choices (a transform, an
+     * order) may make them once on that window, which holds no later data, and return a candidate that
+     * only re-estimates its coefficients at each origin. The default is the candidate itself.
+     */
+    default Candidate forOrigins(double[] earliestTraining, int seasonalPeriod) {
+        return this;
+    }
+
     /** Fits the candidate to {@code y} with seasonal period {@code seasonalPeriod} (1 = none). */
     FittedModel fit(double[] y, int seasonalPeriod);
 }

@@ -5,19 +5,8 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
-import org.apache.commons.math3.optim.InitialGuess;
-import org.apache.commons.math3.optim.MaxEval;
-import org.apache.commons.math3.optim.PointValuePair;
-import org.apache.commons.math3.optim.SimpleBounds;
-import org.apache.commons.math3.optim.nonlinear.scalar.GoalType;
-import org.apache.commons.math3.optim.nonlinear.scalar.ObjectiveFunction;
-import org.apache.commons.math3.optim.nonlinear.scalar.noderiv.BOBYQAOptimizer;
+import dev.tallyvane.engine.math.BoundedMinimum;
 import dev.tallyvane.engine.math.LeastSquares;
-import org.apache.commons.math3.exception.TooManyEvaluationsException;
-import org.apache.commons.math3.optim.univariate.BrentOptimizer;
-import org.apache.commons.math3.optim.univariate.SearchInterval;
-import org.apache.commons.math3.optim.univariate.UnivariateObjectiveFunction;
-import org.apache.commons.math3.optim.univariate.UnivariatePointValuePair;
 
 /**
  * Exponential smoothing in the state-space (ETS) form, the form chosen by AICc.
@@ -33,7 +22,7 @@ import org.apache.commons.math3.optim.univariate.UnivariatePointValuePair;
  *   additive errors:        L* = n log(Σ r_t²)
  *   multiplicative errors:  L* = n log(Σ (r_t/μ_t)²) + 2 Σ log|μ_t|
  * </pre>
- * minimised by BOBYQA (Powell 2009; Commons Math {@link BOBYQAOptimizer}; Brent's method when α is
+ * minimised by BOBYQA (Powell 2009; see {@link BoundedMinimum}; Brent's method when α is
  * the only parameter) under the usual bounds
  * 0 &lt; α &lt; 1, 0 &lt; β &lt; α, 0 &lt; γ &lt; 1 − α, 0.8 ≤ φ ≤ 0.98 (FPP3 §8.6), imposed as boxes by
  * writing β = αβ*, γ = (1 − α)γ* with β*, γ* ∈ (0, 1). Initial states: for the additive-error
@@ -165,31 +154,10 @@ public final class ExponentialSmoothing implements Candidate {
         double[] x0 = layout.initialGuess();
         double[] lower = layout.lower();
         double[] upper = layout.upper();
-        double[] bestX = x0;
-        double bestValue = layout.criterion(x0, y);
-        try {
-            if (x0.length == 1) {
-                UnivariatePointValuePair result = new BrentOptimizer(1e-7, 1e-9).optimize(new MaxEval(500),
-                        new UnivariateObjectiveFunction(a -> layout.criterion(new double[] {a}, y)), GoalType.MINIMIZE,
-                        new SearchInterval(lower[0], upper[0], x0[0]));
-                if (result.getValue() < bestValue) {
-                    bestX = new double[] {result.getPoint()};
-                    bestValue = result.getValue();
-                }
-            } else {
-                BOBYQAOptimizer optimizer = new BOBYQAOptimizer(2 * x0.length + 1, 0.05, 1e-5);
-                PointValuePair result = optimizer.optimize(new MaxEval(2000), new ObjectiveFunction(
-                        x -> layout.criterion(x, y)), GoalType.MINIMIZE, new InitialGuess(x0),
-                        new SimpleBounds(lower, upper));
-                
-                if (result.getValue() < bestValue) {
-                    bestX = result.getPoint();
-                    bestValue = result.getValue();
-                }
-            }
-        } catch (TooManyEvaluationsException e) {
-            // keep the best point known so far: the start, which is admissible
-        }
+        BoundedMinimum.Result result = BoundedMinimum.minimise(x -> layout.criterion(x, y), x0, lower, upper, 0.05,
+                1e-5, 2000);
+        double[] bestX = result.point();
+        double bestValue = result.value();
         if (!(bestValue < PENALTY)) {
             return null;
         }

@@ -1,5 +1,6 @@
 package dev.tallyvane.engine.model;
 
+import dev.tallyvane.engine.math.ClassicalDecomposition;
 import java.util.LinkedHashMap;
 import java.util.Map;
 
@@ -120,22 +121,9 @@ public final class Theta implements Candidate {
         int n = y.length;
         double[] sum = new double[m];
         int[] count = new int[m];
-        int half = m / 2;
-        for (int t = half; t < n - half; t++) {
-            double avg;
-            if (m % 2 == 0) {
-                double s = 0.5 * y[t - half] + 0.5 * y[t + half];
-                for (int j = t - half + 1; j < t + half; j++) {
-                    s += y[j];
-                }
-                avg = s / m;
-            } else {
-                double s = 0;
-                for (int j = t - half; j <= t + half; j++) {
-                    s += y[j];
-                }
-                avg = s / m;
-            }
+        double[] trend = ClassicalDecomposition.trend(y, m);
+        for (int t = 0; t < n; t++) {
+            double avg = trend[t];
             if (avg > 0) {
                 sum[t % m] += y[t] / avg;
                 count[t % m]++;

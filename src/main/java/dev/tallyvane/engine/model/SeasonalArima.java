@@ -1,0 +1,492 @@
+package dev.tallyvane.engine.model;
+
+import dev.tallyvane.engine.math.ArmaStateSpace;
+import dev.tallyvane.engine.math.BoundedMinimum;
+import dev.tallyvane.engine.math.ClassicalDecomposition;
+import dev.tallyvane.engine.math.Kpss;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+
+/**
+ * Seasonal ARIMA(p,d,q)(P,D,Q)_m with the order chosen automatically:
+ * <pre>
+ *   φ(B) Φ(B^m) (1 − B)^d (1 − B^m)^D z_t = c + θ(B) Θ(B^m) e_t,   z_t = y_t or ln y_t
+ * </pre>
+ * The steps follow Hyndman &amp; Khandakar, "Automatic time series forecasting: the forecast
+ * package for R", <i>Journal of Statistical Software</i> 27(3) (2008), §3.2, with our limits:
+ * <ol>
+ * <li><b>Transform</b>: logarithms when every value is positive and the spread grows with the level:
+ * the slope b of log(spread) on log(level) over consecutive blocks (one season long, or six
+ * periods) exceeds ½ (Tukey's spread-versus-level plot, <i>Exploratory Data Analysis</i>, 1977,
+ * suggests the power 1 − b; ½ is halfway between no transform and the log, our choice);</li>
+ * <li><b>Seasonal differencing</b> D = 1 when the seasonal strength F_S of the (transformed) series
+ * exceeds 0.64 ({@link ClassicalDecomposition#seasonalStrength}; the threshold of the forecast
+ * package's seasonal-strength test, from memory); seasonal terms only for 2 ≤ m ≤ 24 and at least
+ * three cycles of data (weekly data leave the yearly cycle to the harmonic regression);</li>
+ * <li><b>Differencing</b> d: difference while the KPSS test rejects stationarity at 5%, at most twice
+ * ({@link Kpss});</li>
+ * <li><b>Order</b>: stepwise search by AICc from the best of (2,2)(1,1), (0,0)(0,0), (1,0)(1,0),
+ * (0,1)(0,1), moving to the best neighbour (p, q, P, Q one up or down, p and q together, P and Q
+ * together, the constant in or out) while the AICc falls; p, q ≤ 3 and P, Q ≤ 1 (the paper allows
+ * 5 and 2); a constant (mean, or drift when d + D = 1) only when d + D ≤ 1;</li>
+ * <li><b>Estimation</b>: exact Gaussian maximum likelihood of the differenced series
+ * ({@link ArmaStateSpace}, Kalman filter), each polynomial searched through its partial
+ * autocorrelations so that every model tried is stationary and invertible;</li>
+ * <li><b>Forecasts</b>: the Kalman filter's final state projected ahead and the differencing undone;
+ * σ_h² = σ̂²(ψ₀² + … + ψ_{h−1}²) from the ψ-weights of the full model including the differencing
+ * (Box, Jenkins &amp; Reinsel 1994, §5.2). On logarithms the point forecast is the median exp(ẑ)
+ * and the interval is exp of the log-scale interval.</li>
+ * </ol>
+ *
+ * <p><b>In a backtest</b> ({@link #forOrigins}) the transform, differencing and order are chosen
+ * once, on the earliest training window, and only the coefficients are re-estimated at each
+ * origin, starting from that window's estimates (a warm start); the final fit searches again on all
+ * the data.
+ */
+public final class SeasonalArima implements Candidate {
+
+    public static final String KEY = "arima";
+
+    static final int MAX_P = 3;
+    static final int MAX_Q = 3;
+    static final int MAX_SEASONAL = 1;
+    static final int MAX_SEASON = 24;
+    static final double STRONG_SEASON = 0.64;
+    private static final int MAX_MODELS = 40;
+    private static final double BOUND = 5;
+
+    /**
+     * The structure of one model.
+     *
+     * @param m        seasonal period of the seasonal terms (1 = none)
+     * @param constant a mean (d + D = 0) or a drift (d + D = 1)
+     * @param log      fitted to ln y
+     */
+    public record Order(int p, int d, int q, int sp, int sd, int sq, int m, boolean constant, boolean log) {
+
+        int coefficients() {
+            return p + q + sp + sq + (constant ? 1 : 0);
+        }
+
+        /** e.g. "ARIMA(0,1,1)(0,1,1)[12] on logarithms". */
+        public String label() {
+            String s = String.format(Locale.ROOT, "ARIMA(%d,%d,%d)", p, d, q);
+            if (m > 1) {
+                s += String.format(Locale.ROOT, "(%d,%d,%d)[%d]", sp, sd, sq, m);
+            }
+            if (constant) {
+                s += d + sd == 0 ? " with mean" : " with drift";
+            }
+            return log ? s + " on logarithms" : s;
+        }
+
+        Order with(int np, int nq, int nsp, int nsq, boolean c) {
+            return new Order(np, d, nq, nsp, sd, nsq, m, c, log);
+        }
+    }
+
+    private final Order fixed;
+    private final double[] start;
+
+    /** The automatic candidate: transform, differencing and order chosen on each fit. */
+    public SeasonalArima() {
+        this(null, null);
+    }
+
+    private SeasonalArima(Order fixed, double[] start) {
+        this.fixed = fixed;
+        this.start = start;
+    }
+
+    /** A candidate that always fits the given order (its coefficients are still estimated). */
+    public static SeasonalArima withOrder(Order order) {
+        return new SeasonalArima(order, null);
+    }
+
+    @Override
+    public String key() {
+        return KEY;
+    }
+
+    @Override
+    public String name() {
+        return fixed == null ? "Seasonal ARIMA (order by AICc)" : fixed.label();
+    }
+
+    @Override
+    public int complexity() {
+        return 5;
+    }
+
+    @Override
+    public int minimumHistory(int seasonalPeriod) {
+        return 10;
+    }
+
+    @Override
+    public Candidate forOrigins(double[] earliestTraining, int seasonalPeriod) {
+        if (fixed != null) {
+            return this;
+        }
+        Estimate e = search(earliestTraining, seasonalPeriod);
+        return new SeasonalArima(e.order, e.u);
+    }
+
+    @Override
+    public FittedModel fit(double[] y, int seasonalPeriod) {
+        Residuals.requireLength(y, minimumHistory(seasonalPeriod), name());
+        Estimate e;
+        if (fixed == null) {
+            e = search(y, seasonalPeriod);
+        } else {
+            double[] w = differenced(transformed(y, fixed.log), fixed);
+            e = estimate(w, fixed, start, start == null ? 0.5 : 0.1, 1e-6);
+            if (e == null) {
+                throw new IllegalArgumentException(fixed.label() + " could not be fitted to " + y.length + " periods");
+            }
+        }
+        return model(y, e);
+    }
+
+    /** One estimated model: unconstrained parameters u, coefficients, and its AICc. */
+    record Estimate(Order order, double[] u, Coefficients coefficients, double minus2LogLikelihood, double aicc) {
+    }
+
+    /** φ(B)Φ(B^m) and θ(B)Θ(B^m) multiplied out, and the constant of the differenced series. */
+    record Coefficients(double[] ar, double[] ma, double mean, Map<String, Double> named) {
+    }
+
+    // ---- choosing the structure -----------------------------------------------------------------
+
+    static Estimate search(double[] y, int seasonalPeriod) {
+        int n = y.length;
+        int m = seasonalPeriod >= 2 && seasonalPeriod <= MAX_SEASON && n >= 3 * seasonalPeriod ? seasonalPeriod : 1;
+        boolean log = logHelps(y, m);
+        double[] z = transformed(y, log);
+        int sd = m > 1 && ClassicalDecomposition.seasonalStrength(z, m) > STRONG_SEASON ? 1 : 0;
+        double[] x = sd == 1 ? difference(z, m) : z;
+        int d = 0;
+        while (d < 2 && x.length > 12 && Kpss.needsDifferencing(x)) {
+            x = difference(x, 1);
+            d++;
+        }
+        double[] w = x;
+        boolean constant = d + sd <= 1;
+        Map<Order, Estimate> tried = new HashMap<>();
+        List<Order> first = new ArrayList<>();
+        first.add(new Order(2, d, 2, m > 1 ? 1 : 0, sd, m > 1 ? 1 : 0, m, constant, log));
+        first.add(new Order(0, d, 0, 0, sd, 0, m, constant, log));
+        first.add(new Order(1, d, 0, m > 1 ? 1 : 0, sd, 0, m, constant, log));
+        first.add(new Order(0, d, 1, 0, sd, m > 1 ? 1 : 0, m, constant, log));
+        Estimate best = null;
+        for (Order o : first) {
+            best = better(best, tried(o, w, tried));
+        }
+        boolean moved = best != null;
+        while (moved && tried.size() < MAX_MODELS) {
+            moved = false;
+            Estimate current = best;
+            for (Order o : neighbours(current.order, d + sd <= 1)) {
+                if (tried.size() >= MAX_MODELS) {
+                    break;
+                }
+                Estimate e = tried(o, w, tried);
+                if (e != null && e.aicc < best.aicc) {
+                    best = e;
+                    moved = true;
+                }
+            }
+        }
+        if (best == null || !Double.isFinite(best.aicc)) {
+            throw new IllegalArgumentException("no ARIMA model could be fitted (the differenced series has "
+                    + w.length + " values" + (isConstant(w) ? " and does not vary" : "") + ")");
+        }
+        Estimate refined = estimate(w, best.order, best.u, 0.05, 1e-6);
+        return refined != null && refined.aicc <= best.aicc ? refined : best;
+    }
+
+    private static Estimate tried(Order o, double[] w, Map<Order, Estimate> tried) {
+        if (tried.containsKey(o)) {
+            return null;
+        }
+        Estimate e = estimate(w, o, null, 0.5, 1e-3);
+        tried.put(o, e);
+        return e;
+    }
+
+    private static Estimate better(Estimate a, Estimate b) {
+        if (b == null || !Double.isFinite(b.aicc)) {
+            return a;
+        }
+        return a == null || b.aicc < a.aicc ? b : a;
+    }
+
+    private static List<Order> neighbours(Order o, boolean constantAllowed) {
+        List<Order> out = new ArrayList<>();
+        int seasonalMax = o.m > 1 ? MAX_SEASONAL : 0;
+        int[][] moves = {{1, 0, 0, 0}, {-1, 0, 0, 0}, {0, 1, 0, 0}, {0, -1, 0, 0}, {1, 1, 0, 0}, {-1, -1, 0, 0},
+            {0, 0, 1, 0}, {0, 0, -1, 0}, {0, 0, 0, 1}, {0, 0, 0, -1}, {0, 0, 1, 1}, {0, 0, -1, -1}};
+        for (int[] mv : moves) {
+            int p = o.p + mv[0];
+            int q = o.q + mv[1];
+            int sp = o.sp + mv[2];
+            int sq = o.sq + mv[3];
+            if (p >= 0 && p <= MAX_P && q >= 0 && q <= MAX_Q && sp >= 0 && sp <= seasonalMax && sq >= 0
+                    && sq <= seasonalMax) {
+                out.add(o.with(p, q, sp, sq, o.constant));
+            }
+        }
+        if (constantAllowed) {
+            out.add(o.with(o.p, o.q, o.sp, o.sq, !o.constant));
+        }
+        return out;
+    }
+
+    /**
+     * True when every value is positive and the spread grows with the level (see the class
+     * comment): the slope of log(standard deviation) on log(mean) over consecutive blocks.
+     */
+    static boolean logHelps(double[] y, int m) {
+        for (double v : y) {
+            if (!(v > 0)) {
+                return false;
+            }
+        }
+        int block = m > 1 ? m : 6;
+        int blocks = y.length / block;
+        if (blocks < 4) {
+            return false;
+        }
+        double[] logMean = new double[blocks];
+        double[] logSd = new double[blocks];
+        int offset = y.length - blocks * block;
+        for (int b = 0; b < blocks; b++) {
+            double mean = 0;
+            for (int i = 0; i < block; i++) {
+                mean += y[offset + b * block + i];
+            }
+            mean /= block;
+            double ss = 0;
+            for (int i = 0; i < block; i++) {
+                double e = y[offset + b * block + i] - mean;
+                ss += e * e;
+            }
+            double sd = Math.sqrt(ss / (block - 1));
+            if (!(sd > 0)) {
+                return false;
+            }
+            logMean[b] = Math.log(mean);
+            logSd[b] = Math.log(sd);
+        }
+        double mx = 0;
+        double my = 0;
+        for (int b = 0; b < blocks; b++) {
+            mx += logMean[b] / blocks;
+            my += logSd[b] / blocks;
+        }
+        double sxy = 0;
+        double sxx = 0;
+        for (int b = 0; b < blocks; b++) {
+            sxy += (logMean[b] - mx) * (logSd[b] - my);
+            sxx += (logMean[b] - mx) * (logMean[b] - mx);
+        }
+        // the level must move enough (here by 10% or more across blocks) for a slope to mean anything
+        return sxx > blocks * 0.0025 && sxy / sxx > 0.5;
+    }
+
+    // ---- estimation -------------------------------------------------------------------------------
+
+    /**
+     * Maximum-likelihood estimate of one order on the differenced series w; null when the series is too
+     * short for the order's parameters.
+     */
+    static Estimate estimate(double[] w, Order o, double[] start, double initialRadius, double finalRadius) {
+        int k = o.coefficients();
+        int n = w.length;
+        if (n - k - 2 <= 0) {
+            return null;
+        }
+        double mean = 0;
+        for (double v : w) {
+            mean += v;
+        }
+        mean /= n;
+        double ss = 0;
+        for (double v : w) {
+            ss += (v - mean) * (v - mean);
+        }
+        double spread = Math.sqrt(ss / Math.max(1, n - 1));
+        double[] lower = new double[k];
+        double[] upper = new double[k];
+        java.util.Arrays.fill(lower, -BOUND);
+        java.util.Arrays.fill(upper, BOUND);
+        double[] x0 = start != null && start.length == k ? start.clone() : new double[k];
+        double wMean = mean;
+        double wSpread = spread;
+        BoundedMinimum.Result result = BoundedMinimum.minimise(u -> minus2LogLikelihood(w, o, u, wMean, wSpread), x0,
+                lower, upper, initialRadius, finalRadius, 400 + 100 * k);
+        double m2ll = result.value();
+        if (!Double.isFinite(m2ll)) {
+            return null;
+        }
+        int parameters = k + 1;
+        double aicc = m2ll + 2 * parameters + 2.0 * parameters * (parameters + 1) / Math.max(1, n - parameters - 1);
+        return new Estimate(o, result.point(), coefficients(o, result.point(), wMean, wSpread), m2ll, aicc);
+    }
+
+    private static double minus2LogLikelihood(double[] w, Order o, double[] u, double wMean, double wSpread) {
+        Coefficients c = coefficients(o, u, wMean, wSpread);
+        double[] centred = new double[w.length];
+        for (int t = 0; t < w.length; t++) {
+            centred[t] = w[t] - c.mean;
+        }
+        return new ArmaStateSpace(c.ar, c.ma).filter(centred, false).minus2LogLikelihood();
+    }
+
+    /** Unconstrained u → coefficients: partial autocorrelations tanh(u) per polynomial, then multiplied out. */
+    static Coefficients coefficients(Order o, double[] u, double wMean, double wSpread) {
+        int i = 0;
+        double[] ar = ArmaStateSpace.fromPartialAutocorrelations(tanh(u, i, o.p));
+        i += o.p;
+        double[] ma = negated(ArmaStateSpace.fromPartialAutocorrelations(tanh(u, i, o.q)));
+        i += o.q;
+        double[] sar = ArmaStateSpace.fromPartialAutocorrelations(tanh(u, i, o.sp));
+        i += o.sp;
+        double[] sma = negated(ArmaStateSpace.fromPartialAutocorrelations(tanh(u, i, o.sq)));
+        i += o.sq;
+        double mean = o.constant ? wMean + u[i] * wSpread / 2 : 0;
+        Map<String, Double> named = new LinkedHashMap<>();
+        put(named, "ar", ar);
+        put(named, "ma", ma);
+        put(named, "sar", sar);
+        put(named, "sma", sma);
+        if (o.constant) {
+            named.put(o.d + o.sd == 0 ? "mean" : "drift", mean);
+        }
+        return new Coefficients(ArmaStateSpace.multiply(ar, ArmaStateSpace.seasonal(sar, o.m), -1),
+                ArmaStateSpace.multiply(ma, ArmaStateSpace.seasonal(sma, o.m), 1), mean, named);
+    }
+
+    private static void put(Map<String, Double> named, String prefix, double[] values) {
+        for (int j = 0; j < values.length; j++) {
+            named.put(prefix + (j + 1), values[j]);
+        }
+    }
+
+    private static double[] tanh(double[] u, int from, int count) {
+        double[] r = new double[count];
+        for (int j = 0; j < count; j++) {
+            r[j] = Math.tanh(u[from + j]);
+        }
+        return r;
+    }
+
+    private static double[] negated(double[] a) {
+        double[] out = new double[a.length];
+        for (int j = 0; j < a.length; j++) {
+            out[j] = -a[j];
+        }
+        return out;
+    }
+
+    // ---- the fitted model -------------------------------------------------------------------------
+
+    private static FittedModel model(double[] y, Estimate e) {
+        Order o = e.order;
+        Coefficients c = e.coefficients;
+        double[] z = transformed(y, o.log);
+        double[] w = differenced(z, o);
+        int n = z.length;
+        int offset = n - w.length;
+        double[] centred = new double[w.length];
+        for (int t = 0; t < w.length; t++) {
+            centred[t] = w[t] - c.mean;
+        }
+        ArmaStateSpace space = new ArmaStateSpace(c.ar, c.ma);
+        ArmaStateSpace.Pass pass = space.filter(centred, true);
+        double[] delta = ArmaStateSpace.differencing(o.d, o.sd, o.m);
+        double[] fitted = Residuals.nanArray(n);
+        for (int t = offset; t < n; t++) {
+            double v = c.mean + pass.predictions()[t - offset];
+            for (int i = 1; i <= delta.length; i++) {
+                v += delta[i - 1] * z[t - i];
+            }
+            fitted[t] = o.log ? Math.exp(v) : v;
+        }
+        double sigma2 = pass.sigma2();
+        double[] fullAr = ArmaStateSpace.multiply(c.ar, delta, -1);
+        Map<String, Double> params = new LinkedHashMap<>(c.named);
+        params.put("sigma2", sigma2);
+        params.put("aicc", e.aicc);
+        params.put("log", o.log ? 1.0 : 0.0);
+        params.put("d", (double) o.d);
+        params.put("D", (double) o.sd);
+        return new Fit(fitted, h -> {
+            double[] ahead = space.forecast(pass.finalState(), h);
+            double[] extended = java.util.Arrays.copyOf(z, n + h);
+            double[] psi = ArmaStateSpace.psiWeights(fullAr, c.ma, h);
+            double[] mean = new double[h];
+            double[] sd = new double[h];
+            double sumPsi2 = 0;
+            for (int k = 0; k < h; k++) {
+                double v = c.mean + ahead[k];
+                for (int i = 1; i <= delta.length; i++) {
+                    v += delta[i - 1] * extended[n + k - i];
+                }
+                extended[n + k] = v;
+                sumPsi2 += psi[k] * psi[k];
+                sd[k] = Math.sqrt(sigma2 * sumPsi2);
+                mean[k] = o.log ? Math.exp(v) : v;
+            }
+            return o.log ? PointForecast.logNormal(mean, sd) : PointForecast.normal(mean, sd);
+        }, params, o.label());
+    }
+
+    static double[] transformed(double[] y, boolean log) {
+        if (!log) {
+            return y;
+        }
+        double[] z = new double[y.length];
+        for (int t = 0; t < y.length; t++) {
+            if (!(y[t] > 0)) {
+                throw new IllegalArgumentException("a model on logarithms needs positive values; period " + (t + 1)
+                        + " has " + y[t]);
+            }
+            z[t] = Math.log(y[t]);
+        }
+        return z;
+    }
+
+    /** (1 − B)^d (1 − B^m)^D z. */
+    static double[] differenced(double[] z, Order o) {
+        double[] x = z;
+        for (int i = 0; i < o.sd; i++) {
+            x = difference(x, o.m);
+        }
+        for (int i = 0; i < o.d; i++) {
+            x = difference(x, 1);
+        }
+        return x;
+    }
+
+    private static double[] difference(double[] x, int lag) {
+        double[] out = new double[Math.max(0, x.length - lag)];
+        for (int t = lag; t < x.length; t++) {
+            out[t - lag] = x[t] - x[t - lag];
+        }
+        return out;
+    }
+
+    private static boolean isConstant(double[] w) {
+        for (double v : w) {
+            if (v != w[0]) {
+                return false;
+            }
+        }
+        return true;
+    }
+}
