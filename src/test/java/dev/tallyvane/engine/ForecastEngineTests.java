@@ -184,16 +184,20 @@ class ForecastEngineTests {
         List<LeaderboardEntry> singles = r.leaderboard().stream()
                 .filter(e -> e.status() == LeaderboardEntry.Status.SCORED && !e.key().startsWith("combo")).limit(3).toList();
         assertThat(combo.name()).startsWith("Mean of ").contains(singles.get(0).name());
-        // recompute: the three best alone, their origin forecasts averaged, MSE over the same actuals
+        // recompute: the three best alone (each settled on the earliest window as the backtest does),
+        // their origin forecasts averaged, MSE over the same actuals
         double[] y = s.values();
+        int first = 48 - 3 - 5;
+        List<dev.tallyvane.engine.model.Candidate> members = singles.stream().map(e -> CandidateSet.all(12, null)
+                .stream().filter(c -> c.key().equals(e.key())).findFirst().orElseThrow()
+                .forOrigins(java.util.Arrays.copyOf(y, first), 12)).toList();
         double sum = 0;
         int count = 0;
-        for (int origin = 48 - 3 - 5; origin <= 48 - 3; origin++) {
+        for (int origin = first; origin <= 48 - 3; origin++) {
             double[] training = java.util.Arrays.copyOf(y, origin);
             double[] mean = new double[3];
-            for (LeaderboardEntry e : singles) {
-                double[] f = CandidateSet.all(12, null).stream().filter(c -> c.key().equals(e.key())).findFirst()
-                        .orElseThrow().fit(training, 12).forecast(3).mean();
+            for (dev.tallyvane.engine.model.Candidate member : members) {
+                double[] f = member.fit(training, 12).forecast(3).mean();
                 for (int h = 0; h < 3; h++) {
                     mean[h] += f[h] / 3;
                 }

@@ -223,6 +223,54 @@ public final class ArmaStateSpace {
         return out;
     }
 
+    /**
+     * The conditional sum of squares of an ARMA(p, q) on zero-mean w: residuals
+     * e_t = w_t − Σ φ_i w_{t−i} − Σ θ_j e_{t−j} for t ≥ p, with e_t = 0 before (Box, Jenkins &amp;
+     * Reinsel 1994, §7.1.2, conditional least squares). Only the non-zero coefficients are visited,
+     * so a seasonal model costs little more than a plain one.
+     *
+     * @return {Σ e_t², number of terms}
+     */
+    public static double[] conditionalSumOfSquares(double[] w, double[] ar, double[] ma) {
+        int[] arLags = nonZero(ar);
+        int[] maLags = nonZero(ma);
+        int n = w.length;
+        int start = ar.length;
+        double[] e = new double[n];
+        double ss = 0;
+        for (int t = start; t < n; t++) {
+            double v = w[t];
+            for (int lag : arLags) {
+                v -= ar[lag - 1] * w[t - lag];
+            }
+            for (int lag : maLags) {
+                if (t - lag >= start) {
+                    v -= ma[lag - 1] * e[t - lag];
+                }
+            }
+            e[t] = v;
+            ss += v * v;
+        }
+        return new double[] {ss, n - start};
+    }
+
+    private static int[] nonZero(double[] c) {
+        int count = 0;
+        for (double v : c) {
+            if (v != 0) {
+                count++;
+            }
+        }
+        int[] lags = new int[count];
+        int k = 0;
+        for (int i = 0; i < c.length; i++) {
+            if (c[i] != 0) {
+                lags[k++] = i + 1;
+            }
+        }
+        return lags;
+    }
+
     // ---- polynomial algebra -------------------------------------------------------------------
 
     /**

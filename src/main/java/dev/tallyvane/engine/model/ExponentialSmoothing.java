@@ -47,7 +47,17 @@ public final class ExponentialSmoothing implements Candidate {
     private static final double EPS = 1e-4;
     private static final int MAX_SEASON = 24;
 
+    /**
+     * In a backtest, the form, smoothing parameters and initial states estimated on the earliest window
+     * are kept (the recursion only runs on) until a window is this much longer; beyond it the settled
+     * form alone is re-estimated. Every window starts at the same period, so the initial states stay
+     * meaningful.
+     */
+    static final double REUSE_GROWTH = 1.25;
+
     private final EtsForm fixedForm;
+    private final Estimate settled;
+    private final int estimatedOn;
 
     /** Chooses the form by AICc. */
     public ExponentialSmoothing() {
@@ -56,7 +66,22 @@ public final class ExponentialSmoothing implements Candidate {
 
     /** Always fits {@code form}. */
     public ExponentialSmoothing(EtsForm form) {
+        this(form, null, 0);
+    }
+
+    private ExponentialSmoothing(EtsForm form, Estimate settled, int estimatedOn) {
         this.fixedForm = form;
+        this.settled = settled;
+        this.estimatedOn = estimatedOn;
+    }
+
+    @Override
+    public Candidate forOrigins(double[] earliestTraining, int seasonalPeriod) {
+        if (earliestTraining.length < minimumHistory(seasonalPeriod)) {
+            return this;
+        }
+        Estimate e = best(earliestTraining, seasonalPeriod);
+        return e == null ? this : new ExponentialSmoothing(fixedForm, e, earliestTraining.length);
     }
 
     @Override
@@ -90,6 +115,30 @@ public final class ExponentialSmoothing implements Candidate {
     public FittedModel fit(double[] y, int seasonalPeriod) {
         int n = y.length;
         Residuals.requireLength(y, minimumHistory(seasonalPeriod), name());
+        if (settled != null) {
+            if (n >= estimatedOn && n <= REUSE_GROWTH * estimatedOn) {
+                EtsRecursion.Pass pass = EtsRecursion.run(settled.form, settled.parameters, settled.initial, y,
+                        seasonalPeriod);
+                if (pass.valid()) {
+                    return toFittedModel(new Estimate(settled.form, settled.parameters, settled.initial, pass,
+                            Double.NaN, settled.k), y, seasonalPeriod);
+                }
+            }
+            Estimate e = estimate(settled.form, y, seasonalPeriod);
+            if (e != null) {
+                return toFittedModel(e, y, seasonalPeriod);
+            }
+        }
+        Estimate best = best(y, seasonalPeriod);
+        if (best == null) {
+            throw new IllegalArgumentException(name() + ": no form could be estimated on " + n + " periods");
+        }
+        return toFittedModel(best, y, seasonalPeriod);
+    }
+
+    /** The form with the lowest AICc (or the fixed form), estimated; null when none could be. */
+    private Estimate best(double[] y, int seasonalPeriod) {
+        int n = y.length;
         List<EtsForm> forms = new ArrayList<>();
         if (fixedForm != null) {
             if (fixedForm.seasonal() && !seasonalAllowed(seasonalPeriod, n)) {
@@ -121,10 +170,7 @@ public final class ExponentialSmoothing implements Candidate {
                 best = e;
             }
         }
-        if (best == null) {
-            throw new IllegalArgumentException(name() + ": no form could be estimated on " + n + " periods");
-        }
-        return toFittedModel(best, y, seasonalPeriod);
+        return best;
     }
 
     private static boolean allPositive(double[] y) {

@@ -32,10 +32,13 @@ import java.util.Map;
  * <li><b>Order</b>: stepwise search by AICc from the best of (2,2)(1,1), (0,0)(0,0), (1,0)(1,0),
  * (0,1)(0,1), moving to the best neighbour (p, q, P, Q one up or down, p and q together, P and Q
  * together, the constant in or out) while the AICc falls; p, q ≤ 3 and P, Q ≤ 1 (the paper allows
- * 5 and 2); a constant (mean, or drift when d + D = 1) only when d + D ≤ 1;</li>
+ * 5 and 2); with fewer than 48 differenced values p, q ≤ 1 and (1,1)(0,0) replaces the (2,2)(1,1)
+ * start (our limits, for speed and because short series cannot support more); a constant (mean, or drift when d + D = 1) only when d + D ≤ 1;</li>
  * <li><b>Estimation</b>: exact Gaussian maximum likelihood of the differenced series
  * ({@link ArmaStateSpace}, Kalman filter), each polynomial searched through its partial
- * autocorrelations so that every model tried is stationary and invertible;</li>
+ * autocorrelations so that every model tried is stationary and invertible; series longer than 150
+ * compare orders by conditional sum of squares and estimate the chosen one by exact likelihood
+ * (Hyndman &amp; Khandakar's approximation);</li>
  * <li><b>Forecasts</b>: the Kalman filter's final state projected ahead and the differencing undone;
  * σ_h² = σ̂²(ψ₀² + … + ψ_{h−1}²) from the ψ-weights of the full model including the differencing
  * (Box, Jenkins &amp; Reinsel 1994, §5.2). On logarithms the point forecast is the median exp(ẑ)
@@ -51,12 +54,21 @@ public final class SeasonalArima implements Candidate {
 
     public static final String KEY = "arima";
 
+    /** Highest p and q searched. */
     static final int MAX_P = 3;
-    static final int MAX_Q = 3;
+    /** Below this many differenced values, p and q stay ≤ 1 (and the (2,2) start is skipped). */
+    static final int SHORT = 48;
     static final int MAX_SEASONAL = 1;
     static final int MAX_SEASON = 24;
     static final double STRONG_SEASON = 0.64;
     private static final int MAX_MODELS = 40;
+    /** Longer series search their order by conditional sum of squares (as Hyndman &amp; Khandakar do above 150). */
+    static final int APPROXIMATE_ABOVE = 150;
+    /**
+     * In a backtest, coefficients estimated on the earliest window are kept (only the filter runs again)
+     * until a window is this much longer; beyond it they are re-estimated from them.
+     */
+    static final double REUSE_GROWTH = 1.25;
     private static final double BOUND = 5;
 
     /**
@@ -91,20 +103,22 @@ public final class SeasonalArima implements Candidate {
 
     private final Order fixed;
     private final double[] start;
+    private final int estimatedOn;
 
     /** The automatic candidate: transform, differencing and order chosen on each fit. */
     public SeasonalArima() {
-        this(null, null);
+        this(null, null, 0);
     }
 
-    private SeasonalArima(Order fixed, double[] start) {
+    private SeasonalArima(Order fixed, double[] start, int estimatedOn) {
         this.fixed = fixed;
         this.start = start;
+        this.estimatedOn = estimatedOn;
     }
 
     /** A candidate that always fits the given order (its coefficients are still estimated). */
     public static SeasonalArima withOrder(Order order) {
-        return new SeasonalArima(order, null);
+        return new SeasonalArima(order, null, 0);
     }
 
     @Override
@@ -133,7 +147,7 @@ public final class SeasonalArima implements Candidate {
             return this;
         }
         Estimate e = search(earliestTraining, seasonalPeriod);
-        return new SeasonalArima(e.order, e.u);
+        return new SeasonalArima(e.order, e.u, earliestTraining.length);
     }
 
     @Override
@@ -144,7 +158,8 @@ public final class SeasonalArima implements Candidate {
             e = search(y, seasonalPeriod);
         } else {
             double[] w = differenced(transformed(y, fixed.log), fixed);
-            e = estimate(w, fixed, start, start == null ? 0.5 : 0.1, 1e-6);
+            e = start != null && y.length <= REUSE_GROWTH * estimatedOn ? reused(w, fixed, start)
+                    : estimate(w, fixed, start);
             if (e == null) {
                 throw new IllegalArgumentException(fixed.label() + " could not be fitted to " + y.length + " periods");
             }
@@ -175,26 +190,28 @@ public final class SeasonalArima implements Candidate {
             d++;
         }
         double[] w = x;
+        boolean exact = n <= APPROXIMATE_ABOVE;
         boolean constant = d + sd <= 1;
         Map<Order, Estimate> tried = new HashMap<>();
         List<Order> first = new ArrayList<>();
-        first.add(new Order(2, d, 2, m > 1 ? 1 : 0, sd, m > 1 ? 1 : 0, m, constant, log));
+        first.add(w.length >= SHORT ? new Order(2, d, 2, m > 1 ? 1 : 0, sd, m > 1 ? 1 : 0, m, constant, log)
+                : new Order(1, d, 1, 0, sd, 0, m, constant, log));
         first.add(new Order(0, d, 0, 0, sd, 0, m, constant, log));
         first.add(new Order(1, d, 0, m > 1 ? 1 : 0, sd, 0, m, constant, log));
         first.add(new Order(0, d, 1, 0, sd, m > 1 ? 1 : 0, m, constant, log));
         Estimate best = null;
         for (Order o : first) {
-            best = better(best, tried(o, w, tried));
+            best = better(best, tried(o, w, tried, exact));
         }
         boolean moved = best != null;
         while (moved && tried.size() < MAX_MODELS) {
             moved = false;
             Estimate current = best;
-            for (Order o : neighbours(current.order, d + sd <= 1)) {
+            for (Order o : neighbours(current.order, d + sd <= 1, w.length < SHORT ? 1 : MAX_P)) {
                 if (tried.size() >= MAX_MODELS) {
                     break;
                 }
-                Estimate e = tried(o, w, tried);
+                Estimate e = tried(o, w, tried, exact);
                 if (e != null && e.aicc < best.aicc) {
                     best = e;
                     moved = true;
@@ -205,15 +222,15 @@ public final class SeasonalArima implements Candidate {
             throw new IllegalArgumentException("no ARIMA model could be fitted (the differenced series has "
                     + w.length + " values" + (isConstant(w) ? " and does not vary" : "") + ")");
         }
-        Estimate refined = estimate(w, best.order, best.u, 0.05, 1e-6);
-        return refined != null && refined.aicc <= best.aicc ? refined : best;
+        Estimate refined = estimate(w, best.order, best.u, exact ? Effort.WARM : Effort.POLISH, true);
+        return refined != null && (!exact || refined.aicc <= best.aicc) ? refined : best;
     }
 
-    private static Estimate tried(Order o, double[] w, Map<Order, Estimate> tried) {
+    private static Estimate tried(Order o, double[] w, Map<Order, Estimate> tried, boolean exact) {
         if (tried.containsKey(o)) {
             return null;
         }
-        Estimate e = estimate(w, o, null, 0.5, 1e-3);
+        Estimate e = estimate(w, o, null, Effort.SEARCH, exact);
         tried.put(o, e);
         return e;
     }
@@ -225,7 +242,7 @@ public final class SeasonalArima implements Candidate {
         return a == null || b.aicc < a.aicc ? b : a;
     }
 
-    private static List<Order> neighbours(Order o, boolean constantAllowed) {
+    private static List<Order> neighbours(Order o, boolean constantAllowed, int maxOrder) {
         List<Order> out = new ArrayList<>();
         int seasonalMax = o.m > 1 ? MAX_SEASONAL : 0;
         int[][] moves = {{1, 0, 0, 0}, {-1, 0, 0, 0}, {0, 1, 0, 0}, {0, -1, 0, 0}, {1, 1, 0, 0}, {-1, -1, 0, 0},
@@ -235,7 +252,7 @@ public final class SeasonalArima implements Candidate {
             int q = o.q + mv[1];
             int sp = o.sp + mv[2];
             int sq = o.sq + mv[3];
-            if (p >= 0 && p <= MAX_P && q >= 0 && q <= MAX_Q && sp >= 0 && sp <= seasonalMax && sq >= 0
+            if (p >= 0 && p <= maxOrder && q >= 0 && q <= maxOrder && sp >= 0 && sp <= seasonalMax && sq >= 0
                     && sq <= seasonalMax) {
                 out.add(o.with(p, q, sp, sq, o.constant));
             }
@@ -304,7 +321,31 @@ public final class SeasonalArima implements Candidate {
      * Maximum-likelihood estimate of one order on the differenced series w; null when the series is too
      * short for the order's parameters.
      */
-    static Estimate estimate(double[] w, Order o, double[] start, double initialRadius, double finalRadius) {
+    static Estimate estimate(double[] w, Order o, double[] start) {
+        return estimate(w, o, start, start == null ? Effort.FULL : Effort.WARM, true);
+    }
+
+    /**
+     * How hard the optimiser works: its initial and final trust-region radius on the
+     * partial-autocorrelation scale, and its evaluation budget (plus {@code perCoefficient} per coefficient).
+     */
+    record Effort(double initialRadius, double finalRadius, int evaluations, int perCoefficient) {
+        /** Comparing orders: two decimals suffice to rank them. */
+        static final Effort SEARCH = new Effort(0.5, 1e-2, 60, 30);
+        /** A fresh estimate of one order. */
+        static final Effort FULL = new Effort(0.5, 1e-6, 400, 100);
+        /** From nearby coefficients (a warm start). */
+        static final Effort WARM = new Effort(0.1, 1e-6, 400, 100);
+        /** Exact likelihood after a search by conditional sum of squares on a long series: each evaluation costs. */
+        static final Effort POLISH = new Effort(0.05, 1e-4, 80, 10);
+    }
+
+    /**
+     * As above, by the exact likelihood or, with {@code exact = false}, by the conditional sum of
+     * squares (−2 log L ≈ N log(2π SS/N) + N over the N residuals it has), the approximation
+     * Hyndman &amp; Khandakar (2008, §3.2) use to search the orders of long or daily series.
+     */
+    static Estimate estimate(double[] w, Order o, double[] start, Effort effort, boolean exact) {
         int k = o.coefficients();
         int n = w.length;
         if (n - k - 2 <= 0) {
@@ -327,24 +368,51 @@ public final class SeasonalArima implements Candidate {
         double[] x0 = start != null && start.length == k ? start.clone() : new double[k];
         double wMean = mean;
         double wSpread = spread;
-        BoundedMinimum.Result result = BoundedMinimum.minimise(u -> minus2LogLikelihood(w, o, u, wMean, wSpread), x0,
-                lower, upper, initialRadius, finalRadius, 400 + 100 * k);
+        BoundedMinimum.Result result = BoundedMinimum.minimise(u -> minus2LogLikelihood(w, o, u, wMean, wSpread, exact),
+                x0, lower, upper, effort.initialRadius, effort.finalRadius, effort.evaluations + effort.perCoefficient * k);
         double m2ll = result.value();
         if (!Double.isFinite(m2ll)) {
             return null;
         }
         int parameters = k + 1;
-        double aicc = m2ll + 2 * parameters + 2.0 * parameters * (parameters + 1) / Math.max(1, n - parameters - 1);
+        int used = exact ? n : n - o.p - o.sp * o.m;
+        if (used - parameters - 1 <= 0) {
+            return null;
+        }
+        double aicc = m2ll + 2 * parameters + 2.0 * parameters * (parameters + 1) / (used - parameters - 1);
         return new Estimate(o, result.point(), coefficients(o, result.point(), wMean, wSpread), m2ll, aicc);
     }
 
-    private static double minus2LogLikelihood(double[] w, Order o, double[] u, double wMean, double wSpread) {
+    /** The coefficients u applied unchanged to a longer series (the mean, if any, re-centred on it). */
+    private static Estimate reused(double[] w, Order o, double[] u) {
+        double mean = 0;
+        for (double v : w) {
+            mean += v;
+        }
+        mean /= w.length;
+        double ss = 0;
+        for (double v : w) {
+            ss += (v - mean) * (v - mean);
+        }
+        double spread = Math.sqrt(ss / Math.max(1, w.length - 1));
+        double m2ll = minus2LogLikelihood(w, o, u, mean, spread, true);
+        return new Estimate(o, u, coefficients(o, u, mean, spread), m2ll, Double.NaN);
+    }
+
+    private static double minus2LogLikelihood(double[] w, Order o, double[] u, double wMean, double wSpread,
+            boolean exact) {
         Coefficients c = coefficients(o, u, wMean, wSpread);
         double[] centred = new double[w.length];
         for (int t = 0; t < w.length; t++) {
             centred[t] = w[t] - c.mean;
         }
-        return new ArmaStateSpace(c.ar, c.ma).filter(centred, false).minus2LogLikelihood();
+        if (exact) {
+            return new ArmaStateSpace(c.ar, c.ma).filter(centred, false).minus2LogLikelihood();
+        }
+        double[] css = ArmaStateSpace.conditionalSumOfSquares(centred, c.ar, c.ma);
+        double count = css[1];
+        return css[0] > 0 && count > 0 ? count * Math.log(2 * Math.PI * css[0] / count) + count
+                : Double.POSITIVE_INFINITY;
     }
 
     /** Unconstrained u → coefficients: partial autocorrelations tanh(u) per polynomial, then multiplied out. */

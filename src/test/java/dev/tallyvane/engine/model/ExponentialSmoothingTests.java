@@ -117,4 +117,26 @@ class ExponentialSmoothingTests {
         assertThat(sd[1]).isCloseTo(2.0 * Math.sqrt(1 + 0.25), within(1e-12));
         assertThat(sd[2]).isCloseTo(2.0 * Math.sqrt(1 + 0.5), within(1e-12));
     }
+
+    @Test
+    void inABacktestTheFormAndParametersAreSettledOnTheEarliestWindow() {
+        Random r = new Random(5);
+        double[] y = new double[120];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = 200 + 2 * t + 30 * Math.sin(2 * Math.PI * t / 12) + 6 * r.nextGaussian();
+        }
+        double[] earliest = Arrays.copyOf(y, 80);
+        Candidate settled = new ExponentialSmoothing().forOrigins(earliest, 12);
+        FittedModel onEarliest = new ExponentialSmoothing().fit(earliest, 12);
+        // within 25% more data the parameters are kept and the recursion runs on
+        FittedModel near = settled.fit(Arrays.copyOf(y, 96), 12);
+        assertThat(near.description()).isEqualTo(onEarliest.description());
+        assertThat(near.parameters().get("alpha")).isEqualTo(onEarliest.parameters().get("alpha"));
+        assertThat(near.parameters().get("l0")).isEqualTo(onEarliest.parameters().get("l0"));
+        assertThat(near.fitted()).hasSize(96);
+        // beyond it the settled form is re-estimated
+        FittedModel far = settled.fit(y, 12);
+        assertThat(far.description()).isEqualTo(onEarliest.description());
+        assertThat(far.parameters().get("l0")).isNotEqualTo(onEarliest.parameters().get("l0"));
+    }
 }

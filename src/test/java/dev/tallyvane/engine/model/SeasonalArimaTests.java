@@ -77,7 +77,7 @@ class SeasonalArimaTests {
         assertThat(e.order().m()).isEqualTo(12);
         // the stepwise search must do at least as well as the airline model by its own criterion
         double[] w = SeasonalArima.differenced(SeasonalArima.transformed(passengers(), true), AIRLINE);
-        SeasonalArima.Estimate airline = SeasonalArima.estimate(w, AIRLINE, null, 0.5, 1e-6);
+        SeasonalArima.Estimate airline = SeasonalArima.estimate(w, AIRLINE, null);
         assertThat(e.aicc()).isLessThanOrEqualTo(airline.aicc() + 1e-6);
     }
 
@@ -191,5 +191,33 @@ class SeasonalArimaTests {
         assertThat(fit.parameters().get("mean")).isCloseTo(50, within(0.5));
         double[] mean = fit.forecast(40).mean();
         assertThat(mean[39]).isCloseTo(fit.parameters().get("mean"), within(0.01));
+    }
+
+    @Test
+    void inABacktestTheOrderIsSettledOnTheEarliestWindowAndCoefficientsReusedNearby() {
+        double[] y = passengers();
+        double[] earliest = java.util.Arrays.copyOf(y, 100);
+        Candidate settled = new SeasonalArima().forOrigins(earliest, 12);
+        FittedModel onEarliest = settled.fit(earliest, 12);
+        assertThat(settled.name()).isEqualTo(onEarliest.description()).doesNotContain("by AICc");
+        // 120 ≤ 1.25 × 100: the coefficients are reused, only the filter runs on
+        FittedModel near = settled.fit(java.util.Arrays.copyOf(y, 120), 12);
+        assertThat(coefficients(onEarliest)).isNotEmpty();
+        assertThat(coefficients(near)).isEqualTo(coefficients(onEarliest));
+        assertThat(near.description()).isEqualTo(onEarliest.description());
+        // 144 > 125: same order, coefficients re-estimated
+        FittedModel far = settled.fit(y, 12);
+        assertThat(far.description()).isEqualTo(onEarliest.description());
+        assertThat(coefficients(far)).isNotEqualTo(coefficients(onEarliest));
+    }
+
+    private static java.util.Map<String, Double> coefficients(FittedModel f) {
+        java.util.Map<String, Double> out = new java.util.TreeMap<>();
+        f.parameters().forEach((k, v) -> {
+            if (k.matches("(ar|ma|sar|sma)\\d+")) {
+                out.put(k, v);
+            }
+        });
+        return out;
     }
 }
