@@ -1,5 +1,6 @@
 package dev.tallyvane.engine;
 
+import dev.tallyvane.engine.model.CalendarRegression;
 import dev.tallyvane.engine.model.Candidate;
 import dev.tallyvane.engine.model.Combination;
 import dev.tallyvane.engine.model.TradingDayRegression;
@@ -97,6 +98,7 @@ public final class CandidateSet {
                 names.put(rule.key(), rule.generalName());
             }
             names.put(TradingDayRegression.KEY, "Trend with seasonal dummies and trading days (monthly figures)");
+            names.put(CalendarRegression.KEY, "Weekdays, holidays and yearly harmonics with ARMA errors (daily figures)");
             for (int m : new int[] {7, 12, 52}) {
                 for (Candidate c : all(m, new double[] {1.0}, true)) {
                     names.putIfAbsent(c.key(), c.key().equals("wma") ? "Weighted moving average with your weights"

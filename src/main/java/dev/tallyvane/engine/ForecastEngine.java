@@ -6,6 +6,7 @@ import dev.tallyvane.engine.ForecastResult.IntervalSource;
 import dev.tallyvane.engine.evaluation.LeaderboardEntry;
 import dev.tallyvane.engine.evaluation.Metric;
 import dev.tallyvane.engine.evaluation.RollingOriginBacktest;
+import dev.tallyvane.engine.model.CalendarRegression;
 import dev.tallyvane.engine.model.Candidate;
 import dev.tallyvane.engine.model.Combination;
 import dev.tallyvane.engine.model.SeasonalNaive;
@@ -82,6 +83,10 @@ public final class ForecastEngine {
         if (series.granularity() == dev.tallyvane.engine.series.Granularity.MONTH && (request.candidateKeys().isEmpty()
                 || request.candidateKeys().contains(TradingDayRegression.KEY))) {
             candidates.add(new TradingDayRegression(java.time.YearMonth.from(series.periodAt(data.offset()))));
+        }
+        if (series.granularity() == Granularity.DAY && m == 7 && (request.candidateKeys().isEmpty()
+                || request.candidateKeys().contains(CalendarRegression.KEY))) {
+            candidates.add(new CalendarRegression(series.periodAt(data.offset()), series.calendar()));
         }
         RollingOriginBacktest backtest = RollingOriginBacktest.plan(n, h, request.maxOrigins(),
                 request.originStep(), MINIMUM_TRAINING);
