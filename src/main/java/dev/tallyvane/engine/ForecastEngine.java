@@ -41,12 +41,15 @@ import org.apache.commons.math3.distribution.TDistribution;
  * </ul>
  *
  * <p><b>Selection</b>: rolling origins at the requested horizon ({@link RollingOriginBacktest});
- * the mean of the three best candidates is scored on the same origins as one more candidate
- * ({@link Combination}); lowest metric wins; on a tie the simpler candidate wins. With too
- * little history for a single origin the engine falls back to the naive method and says so.
+ * the mean and the median of the three best candidates are scored on the same origins as more
+ * candidates ({@link Combination}); lowest metric wins; on a tie the simpler candidate wins. With too
+ * little history for a single origin the engine falls back to the naive method and says so. Monthly
+ * series also get the trading-day regression, daily series the calendar regression (they need the
+ * dates). Candidates with costly structural choices settle them on the earliest training window
+ * ({@link Candidate#forOrigins}); the chosen candidate is then fitted afresh on all the data.
  *
  * <p><b>Intervals</b>: the model's analytic σ_h where it has one (normal, or the t distribution where the
- * model states degrees of freedom); otherwise empirical from the rolling-origin errors: σ_h =
+ * model states degrees of freedom; log-normal for models of the logarithms); otherwise empirical from the rolling-origin errors: σ_h =
  * RMSE of the step-h errors (made non-decreasing in h), with the t distribution on as many degrees of
  * freedom as there were step-h errors, since few origins give a rough estimate of σ_h.
  *
@@ -55,7 +58,7 @@ import org.apache.commons.math3.distribution.TDistribution;
 public final class ForecastEngine {
 
     /** Version of the engine, recorded with every issued forecast. */
-    public static final String VERSION = "1.0";
+    public static final String VERSION = "1.1";
 
     private static final int MINIMUM_TRAINING = 4;
     /** How many of the best candidates the combination averages. */

@@ -7,7 +7,11 @@ import dev.tallyvane.engine.ForecastResult;
 import dev.tallyvane.engine.ReferenceData;
 import dev.tallyvane.engine.evaluation.ErrorSample;
 import dev.tallyvane.engine.evaluation.Metric;
+import dev.tallyvane.engine.evaluation.RollingOriginBacktest;
+import dev.tallyvane.engine.model.CalendarRegression;
 import dev.tallyvane.engine.model.Candidate;
+import dev.tallyvane.engine.model.ExponentialSmoothing;
+import dev.tallyvane.engine.model.SeasonalArima;
 import dev.tallyvane.engine.model.TradingDayRegression;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.engine.series.Series;
@@ -83,7 +87,50 @@ class AccuracyHarness {
                     new Series(Granularity.MONTH, LocalDate.of(2023, 1, 1), Arrays.copyOf(monthly, monthly.length - 12)),
                     Arrays.copyOfRange(monthly, monthly.length - 12, monthly.length), 12));
         }
+        for (int i = 0; i < 6; i++) {
+            cases.add(daily(i, r));
+        }
         return cases;
+    }
+
+    /**
+     * An invented café's daily takings over three years: weekday pattern, yearly swing, trend, noise with
+     * day-to-day carry-over, holidays (busier) and a closed day every few weeks (busier the day after);
+     * the last 28 days held out.
+     */
+    static Case daily(int i, Random r) {
+        double[] week = {0.85, 0.9, 0.95, 1.0, 1.15, 1.4, 0.75};
+        LocalDate first = LocalDate.of(2023, 1, 2);
+        int days = 3 * 365;
+        double level = 600 + r.nextInt(900);
+        double season = 0.05 + r.nextDouble() * 0.2;
+        java.util.Set<LocalDate> holidays = new java.util.HashSet<>();
+        java.util.Set<LocalDate> closed = new java.util.HashSet<>();
+        for (int d = 0; d < days; d++) {
+            if ((d + 7 * i) % 41 == 5) {
+                holidays.add(first.plusDays(d));
+            } else if ((d + 3 * i) % 53 == 9) {
+                closed.add(first.plusDays(d));
+            }
+        }
+        double[] y = new double[days];
+        double carry = 0;
+        for (int d = 0; d < days; d++) {
+            LocalDate day = first.plusDays(d);
+            carry = 0.5 * carry + 0.06 * r.nextGaussian();
+            double v = level * (1 + 0.1 * d / 365.0) * (1 + season * Math.sin(2 * Math.PI * (day.getDayOfYear() - 80)
+                    / 365.25)) * week[day.getDayOfWeek().getValue() - 1] * (1 + carry);
+            if (holidays.contains(day)) {
+                v *= 1.5;
+            }
+            if (closed.contains(day.minusDays(1))) {
+                v *= 1.3;
+            }
+            y[d] = closed.contains(day) ? 0 : v;
+        }
+        var calendar = new dev.tallyvane.engine.series.CalendarFacts(closed, holidays);
+        return new Case("daily " + (i + 1), new Series(Granularity.DAY, first, Arrays.copyOf(y, days - 28), calendar),
+                Arrays.copyOfRange(y, days - 28, days), 7);
     }
 
     static double mase(ForecastResult r, Case c) {
@@ -95,15 +142,31 @@ class AccuracyHarness {
     }
 
     static double mase(double[] forecast, Case c) {
-        double[] train = c.train().values();
+        double[] train = filled(c);
         boolean[] ok = new boolean[train.length];
-        Arrays.fill(ok, true);
+        for (int t = 0; t < train.length; t++) {
+            ok[t] = !c.train().isClosed(t);
+        }
         double scale = ErrorSample.maseScale(train, ok, train.length, train.length > c.m() ? c.m() : 1);
         ErrorSample e = new ErrorSample();
         for (int h = 1; h <= c.holdout().length; h++) {
-            e.add(c.holdout()[h - 1], forecast[h - 1], scale);
+            if (!c.train().isClosed(train.length + h - 1)) {
+                // a closed day is never scored (the engine forecasts it as 0)
+                e.add(c.holdout()[h - 1], forecast[h - 1], scale);
+            }
         }
         return e.compute(Metric.MASE);
+    }
+
+    /** The training values with closed days filled as the engine fills them (the value a week earlier). */
+    static double[] filled(Case c) {
+        double[] y = c.train().values().clone();
+        for (int t = 0; t < y.length; t++) {
+            if (c.train().isClosed(t)) {
+                y[t] = t >= 7 ? y[t - 7] : y[t + 7];
+            }
+        }
+        return y;
     }
 
     /** Every single candidate for the case, fitted alone on the whole training part (no selection). */
@@ -111,6 +174,9 @@ class AccuracyHarness {
         List<Candidate> all = new ArrayList<>(CandidateSet.all(c.m(), new double[] {0.5, 0.3, 0.2}, true));
         if (c.train().granularity() == Granularity.MONTH) {
             all.add(new TradingDayRegression(java.time.YearMonth.from(c.train().periodAt(0))));
+        }
+        if (c.train().granularity() == Granularity.DAY) {
+            all.add(new CalendarRegression(c.train().start(), c.train().calendar()));
         }
         return all;
     }
@@ -133,7 +199,7 @@ class AccuracyHarness {
                 double v = Double.NaN; // NaN: the series is too short for the method
                 if (c.train().values().length >= k.minimumHistory(c.m())) {
                     try {
-                        v = mase(k.fit(c.train().values(), c.m()).forecast(h).mean(), c);
+                        v = mase(k.fit(filled(c), c.m()).forecast(h).mean(), c);
                     } catch (IllegalArgumentException tooShortOrUnfit) {
                         v = Double.NaN;
                     }
@@ -165,5 +231,90 @@ class AccuracyHarness {
 
     private static double mean(double[] v) {
         return Arrays.stream(v).average().orElse(Double.NaN);
+    }
+
+    /**
+     * The cost of the backtest shortcuts: each candidate that settles its structure on the earliest
+     * window (and reuses its estimates nearby) against the same candidate fully re-fitted at every
+     * origin, on the same origins of every case: mean rolling-origin MASE and time.
+     */
+    @Test
+    void shortcutCost() {
+        List<Case> cases = cases();
+        for (Case c0 : cases.subList(0, 1)) {
+            // warm the JIT a little so the timings compare like with like
+            run(new ExponentialSmoothing(), c0, true);
+            run(new ExponentialSmoothing(), c0, false);
+        }
+        System.out.println("BENCH candidate | series | backtest MASE settled | full re-fit | ms settled | ms full re-fit");
+        for (String key : List.of("ets", "arima", "calendar")) {
+            double[] settled = new double[2];
+            double[] full = new double[2];
+            int count = 0;
+            for (Case c : cases) {
+                Candidate k = key.equals("ets") ? new ExponentialSmoothing() : key.equals("arima") ? new SeasonalArima()
+                        : c.train().granularity() == Granularity.DAY
+                                ? new CalendarRegression(c.train().start(), c.train().calendar()) : null;
+                if (k == null) {
+                    continue;
+                }
+                double[] a = run(k, c, true);
+                double[] b = run(k, c, false);
+                if (Double.isFinite(a[0]) && Double.isFinite(b[0])) {
+                    settled[0] += a[0];
+                    settled[1] += a[1];
+                    full[0] += b[0];
+                    full[1] += b[1];
+                    count++;
+                }
+            }
+            System.out.printf(Locale.ROOT, "BENCH %s | %d | %.3f | %.3f | %.0f | %.0f%n", key, count, settled[0] / count,
+                    full[0] / count, settled[1] / count, full[1] / count);
+        }
+    }
+
+    /** {MASE over the backtest, milliseconds}; the origins are the engine's defaults (6, one horizon apart). */
+    private static double[] run(Candidate k, Case c, boolean settled) {
+        double[] y = filled(c);
+        int h = c.holdout().length;
+        boolean[] ok = new boolean[y.length];
+        for (int t = 0; t < y.length; t++) {
+            ok[t] = !c.train().isClosed(t);
+        }
+        ForecastRequest defaults = ForecastRequest.of(h);
+        RollingOriginBacktest plan = RollingOriginBacktest.plan(y.length, h, defaults.maxOrigins(), defaults.originStep(),
+                Math.max(4, k.minimumHistory(c.m())));
+        if (plan.originCount() == 0) {
+            return new double[] {Double.NaN, 0};
+        }
+        Candidate used = settled ? k : new Candidate() {
+            // the same candidate without its shortcut: forOrigins keeps the default (itself)
+            public String key() {
+                return k.key();
+            }
+
+            public String name() {
+                return k.name();
+            }
+
+            public int complexity() {
+                return k.complexity();
+            }
+
+            public int minimumHistory(int m) {
+                return k.minimumHistory(m);
+            }
+
+            public dev.tallyvane.engine.model.FittedModel fit(double[] values, int m) {
+                return k.fit(values, m);
+            }
+        };
+        long t0 = System.nanoTime();
+        try {
+            RollingOriginBacktest.Outcome o = plan.run(used, y, ok, c.m());
+            return new double[] {o.errors().compute(Metric.MASE), (System.nanoTime() - t0) / 1e6};
+        } catch (RuntimeException e) {
+            return new double[] {Double.NaN, 0};
+        }
     }
 }

@@ -41,8 +41,9 @@ class WeeklySummaryClusterPostgresIntegrationTests {
     ConfigurableApplicationContext b;
 
     private ConfigurableApplicationContext instance(String name, String[] db) {
+        // a send that fails once (a slow SMTP answer on a busy CI machine) is retried after 1 s, not the default minute
         return instances.startClosedAfterTest(name, db, "--tallyvane.refit.coalesce=100ms", "--spring.mail.host=127.0.0.1",
-                "--spring.mail.port=3025");
+                "--spring.mail.port=3025", "--tallyvane.summary.retry-delay=1s");
     }
 
     @Test
@@ -65,8 +66,14 @@ class WeeklySummaryClusterPostgresIntegrationTests {
         CompletableFuture<Integer> fromA = CompletableFuture.supplyAsync(() -> a.getBean(SummaryService.class).plan(week));
         CompletableFuture<Integer> fromB = CompletableFuture.supplyAsync(() -> b.getBean(SummaryService.class).plan(week));
         assertThat(fromA.join() + fromB.join()).isEqualTo(5);
-        await().atMost(Duration.ofSeconds(60)).until(() -> a.getBean(SummaryService.class).log(20).stream()
-                .allMatch(s -> s.status().equals("SENT")) && smtp.getReceivedMessages().length >= 5);
+        try {
+            await().atMost(Duration.ofSeconds(120)).until(() -> a.getBean(SummaryService.class).log(20).stream()
+                    .allMatch(s -> s.status().equals("SENT")) && smtp.getReceivedMessages().length >= 5);
+        } catch (org.awaitility.core.ConditionTimeoutException e) {
+            // say what the sends were doing, so a failure here can be understood from the CI log
+            throw new AssertionError("sends did not all go out: " + a.getBean(SummaryService.class).log(20) + "; "
+                    + smtp.getReceivedMessages().length + " message(s) received", e);
+        }
         assertThat(Arrays.stream(smtp.getReceivedMessages()).map(m -> {
             try {
                 return m.getAllRecipients()[0].toString();

@@ -46,9 +46,10 @@ import java.util.Map;
  * </ol>
  *
  * <p><b>In a backtest</b> ({@link #forOrigins}) the transform, differencing and order are chosen
- * once, on the earliest training window, and only the coefficients are re-estimated at each
- * origin, starting from that window's estimates (a warm start); the final fit searches again on all
- * the data.
+ * once, on the earliest training window. At each origin the coefficients of that window are reused
+ * (only the Kalman filter runs on the longer data) while the window is at most 25% longer, and are
+ * re-estimated from them (a warm start) beyond that; the final fit searches again on all the data.
+ * The accuracy harness measures what this costs (docs/benchmarks.md).
  */
 public final class SeasonalArima implements Candidate {
 
@@ -351,23 +352,14 @@ public final class SeasonalArima implements Candidate {
         if (n - k - 2 <= 0) {
             return null;
         }
-        double mean = 0;
-        for (double v : w) {
-            mean += v;
-        }
-        mean /= n;
-        double ss = 0;
-        for (double v : w) {
-            ss += (v - mean) * (v - mean);
-        }
-        double spread = Math.sqrt(ss / Math.max(1, n - 1));
+        double[] centre = meanAndSpread(w);
         double[] lower = new double[k];
         double[] upper = new double[k];
         java.util.Arrays.fill(lower, -BOUND);
         java.util.Arrays.fill(upper, BOUND);
         double[] x0 = start != null && start.length == k ? start.clone() : new double[k];
-        double wMean = mean;
-        double wSpread = spread;
+        double wMean = centre[0];
+        double wSpread = centre[1];
         BoundedMinimum.Result result = BoundedMinimum.minimise(u -> minus2LogLikelihood(w, o, u, wMean, wSpread, exact),
                 x0, lower, upper, effort.initialRadius, effort.finalRadius, effort.evaluations + effort.perCoefficient * k);
         double m2ll = result.value();
@@ -385,6 +377,13 @@ public final class SeasonalArima implements Candidate {
 
     /** The coefficients u applied unchanged to a longer series (the mean, if any, re-centred on it). */
     private static Estimate reused(double[] w, Order o, double[] u) {
+        double[] centre = meanAndSpread(w);
+        double m2ll = minus2LogLikelihood(w, o, u, centre[0], centre[1], true);
+        return new Estimate(o, u, coefficients(o, u, centre[0], centre[1]), m2ll, Double.NaN);
+    }
+
+    /** {mean, sample standard deviation}: the constant's starting point and the scale it is searched on. */
+    private static double[] meanAndSpread(double[] w) {
         double mean = 0;
         for (double v : w) {
             mean += v;
@@ -394,9 +393,7 @@ public final class SeasonalArima implements Candidate {
         for (double v : w) {
             ss += (v - mean) * (v - mean);
         }
-        double spread = Math.sqrt(ss / Math.max(1, w.length - 1));
-        double m2ll = minus2LogLikelihood(w, o, u, mean, spread, true);
-        return new Estimate(o, u, coefficients(o, u, mean, spread), m2ll, Double.NaN);
+        return new double[] {mean, Math.sqrt(ss / Math.max(1, w.length - 1))};
     }
 
     private static double minus2LogLikelihood(double[] w, Order o, double[] u, double wMean, double wSpread,
