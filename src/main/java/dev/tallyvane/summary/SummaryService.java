@@ -110,7 +110,8 @@ public class SummaryService {
         for (UserService.Recipient r : users.weeklyRecipients()) {
             Long id = insert(weekStart, r, "WEEKLY", "weekly:" + weekStart + ":" + r.id());
             if (id != null) {
-                jobs.getObject().client().scheduleIfNotExists(sendTask.getObject().instance("send-" + id, id),
+                // in this transaction: a worker must not pick the send before its row is committed
+                jobs.getObject().transactionalClient().scheduleIfNotExists(sendTask.getObject().instance("send-" + id, id),
                         Instant.now());
                 planned++;
             }

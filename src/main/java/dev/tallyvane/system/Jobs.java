@@ -7,6 +7,7 @@ import com.github.kagkarlsson.scheduler.task.helper.RecurringTask;
 import com.github.kagkarlsson.scheduler.task.Task;
 import java.util.List;
 import javax.sql.DataSource;
+import org.springframework.jdbc.datasource.TransactionAwareDataSourceProxy;
 import org.springframework.context.SmartLifecycle;
 import org.springframework.stereotype.Component;
 
@@ -23,6 +24,7 @@ public class Jobs implements SmartLifecycle {
     private final List<Task<?>> tasks;
     private final JobsProperties properties;
     private final SchedulerClient client;
+    private final SchedulerClient transactionalClient;
     private Scheduler scheduler;
 
     Jobs(DataSource dataSource, List<Task<?>> tasks, JobsProperties properties) {
@@ -31,11 +33,25 @@ public class Jobs implements SmartLifecycle {
         this.properties = properties;
         // the client queues work whether or not this instance's worker pool is running
         this.client = SchedulerClient.Builder.create(dataSource, this.tasks).build();
+        // db-scheduler leaves a connection whose auto-commit is off to its owner, so through this proxy a job
+        // queued inside a Spring transaction is written (and becomes visible to the workers) with it
+        this.transactionalClient = SchedulerClient.Builder.create(new TransactionAwareDataSourceProxy(dataSource),
+                this.tasks).build();
     }
 
-    /** Queues and reschedules jobs. */
+    /** Queues and reschedules jobs at once, on a connection of its own. */
     public SchedulerClient client() {
         return client;
+    }
+
+    /**
+     * Queues jobs as part of the caller's transaction (outside one it behaves like {@link #client()}):
+     * a job about rows the transaction writes can neither run before they are committed nor outlive
+     * their rollback. For new, uniquely named instances only: a failed statement would abort the
+     * caller's transaction on PostgreSQL.
+     */
+    public SchedulerClient transactionalClient() {
+        return transactionalClient;
     }
 
     public String instanceName() {

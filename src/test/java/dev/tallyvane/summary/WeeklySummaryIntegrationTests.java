@@ -112,6 +112,36 @@ class WeeklySummaryIntegrationTests {
         awaitQueueEmpty();
     }
 
+    @Autowired
+    org.springframework.transaction.PlatformTransactionManager transactions;
+    @Autowired
+    javax.sql.DataSource dataSource;
+
+    @Test
+    void sendsAreQueuedInThePlanningTransaction() {
+        // the job and its row are written together: a rolled-back plan leaves neither (a job written on its
+        // own connection could also run before the row was committed, find nothing and end unsent)
+        LocalDate week = WEEK.minusWeeks(7);
+        String tasks = "select count(*) from scheduled_tasks where task_instance like 'send-%'";
+        long before = jdbc.queryForObject(tasks, Long.class);
+        var template = new org.springframework.transaction.support.TransactionTemplate(transactions);
+        template.executeWithoutResult(status -> {
+            assertThat(summaries.plan(week)).isPositive();
+            // seen from another connection (a worker's), nothing is queued yet
+            try (java.sql.Connection other = dataSource.getConnection();
+                    java.sql.ResultSet rs = other.createStatement().executeQuery(tasks)) {
+                rs.next();
+                assertThat(rs.getLong(1)).isEqualTo(before);
+            } catch (java.sql.SQLException e) {
+                throw new IllegalStateException(e);
+            }
+            status.setRollbackOnly();
+        });
+        assertThat(jdbc.queryForObject("select count(*) from summary_send where week_start = ?", Long.class, week))
+                .isZero();
+        assertThat(jdbc.queryForObject(tasks, Long.class)).isEqualTo(before);
+    }
+
     private long createUser(String name, Role role, String email) {
         users.create(new UserService.NewUser(name, name.substring(0, 1).toUpperCase(Locale.ROOT) + name.substring(1),
                 email, "a long enough password", "a long enough password", role), "test");
