@@ -133,6 +133,16 @@ class AccuracyHarness {
                 Arrays.copyOfRange(y, days - 28, days), 7);
     }
 
+    /**
+     * The engine's defaults, except that {@code -Dharness.step.day=N} / {@code -Dharness.step.week=N}
+     * space the rolling origins of daily / weekly series N periods apart (to measure the choice).
+     */
+    static ForecastRequest request(Case c) {
+        ForecastRequest r = ForecastRequest.of(c.holdout().length);
+        String step = System.getProperty("harness.step." + c.train().granularity().name().toLowerCase(Locale.ROOT));
+        return step == null ? r : r.withOrigins(r.maxOrigins(), Integer.parseInt(step));
+    }
+
     static double mase(ForecastResult r, Case c) {
         double[] f = new double[c.holdout().length];
         for (int h = 1; h <= f.length; h++) {
@@ -191,7 +201,7 @@ class AccuracyHarness {
         for (int i = 0; i < cases.size(); i++) {
             Case c = cases.get(i);
             int h = c.holdout().length;
-            ForecastResult a = ForecastEngine.forecast(c.train(), ForecastRequest.of(h));
+            ForecastResult a = ForecastEngine.forecast(c.train(), request(c));
             auto[i] = mase(a, c);
             String bestKey = null;
             hindsight[i] = Double.POSITIVE_INFINITY;
