@@ -138,17 +138,31 @@ class AccuracyHarness {
      * space the rolling origins of daily / weekly series N periods apart (to measure the choice).
      */
     static ForecastRequest request(Case c) {
-        ForecastRequest r = ForecastRequest.of(c.holdout().length);
+        // the engine forecasts from the last observed period: a training part ending on closed days needs
+        // as many more steps to reach the end of the held-out days
+        ForecastRequest r = ForecastRequest.of(c.holdout().length + trailingClosed(c));
         String step = System.getProperty("harness.step." + c.train().granularity().name().toLowerCase(Locale.ROOT));
         return step == null ? r : r.withOrigins(r.maxOrigins(), Integer.parseInt(step));
     }
 
     static double mase(ForecastResult r, Case c) {
         double[] f = new double[c.holdout().length];
+        int n = c.train().values().length;
         for (int h = 1; h <= f.length; h++) {
-            f[h - 1] = r.forecastAt(h).forecast();
+            // matched by date, not by step (see request)
+            LocalDate period = c.train().periodAt(n + h - 1);
+            f[h - 1] = r.forecasts().stream().filter(p -> p.period().equals(period)).findFirst().orElseThrow().forecast();
         }
         return mase(f, c);
+    }
+
+    static int trailingClosed(Case c) {
+        int n = c.train().values().length;
+        int k = 0;
+        while (k < n && c.train().isClosed(n - 1 - k)) {
+            k++;
+        }
+        return k;
     }
 
     static double mase(double[] forecast, Case c) {

@@ -90,7 +90,7 @@ public final class CalendarRegression implements Candidate {
         if (earliestTraining.length < minimumHistory(seasonalPeriod)) {
             return this;
         }
-        Estimate e = estimate(earliestTraining, null);
+        Estimate e = estimate(earliestTraining, null, false);
         return new CalendarRegression(first, calendar, new Settled(e.design.harmonics, e.errorOrder, e.errorU,
                 earliestTraining.length));
     }
@@ -101,7 +101,7 @@ public final class CalendarRegression implements Candidate {
             throw new IllegalArgumentException(name() + " is for daily figures (m = 7), got m = " + seasonalPeriod);
         }
         Residuals.requireLength(y, minimumHistory(seasonalPeriod), name());
-        return model(y, estimate(y, settled));
+        return model(y, estimate(y, settled, true));
     }
 
     /** The columns of one fit: which terms the training data support. */
@@ -116,7 +116,8 @@ public final class CalendarRegression implements Candidate {
             double[] errorU, SeasonalArima.Coefficients errors, double[] residuals) {
     }
 
-    private Estimate estimate(double[] y, Settled fixed) {
+    /** @param polish see {@link SeasonalArima#search(double[], int, boolean)} (for the error model) */
+    private Estimate estimate(double[] y, Settled fixed, boolean polish) {
         int n = y.length;
         boolean[] open = new boolean[n];
         int holidays = 0;
@@ -176,7 +177,7 @@ public final class CalendarRegression implements Candidate {
                 u = e == null ? u : e.u();
             }
         } else {
-            SeasonalArima.Estimate e = errorModel(residuals);
+            SeasonalArima.Estimate e = errorModel(residuals, polish);
             order = e == null ? null : e.order();
             u = e == null ? null : e.u();
         }
@@ -185,7 +186,7 @@ public final class CalendarRegression implements Candidate {
     }
 
     /** The ARMA order of the residuals by AICc against white noise; null when white noise wins. */
-    private static SeasonalArima.Estimate errorModel(double[] residuals) {
+    private static SeasonalArima.Estimate errorModel(double[] residuals, boolean polish) {
         int n = residuals.length;
         boolean exact = n <= SeasonalArima.APPROXIMATE_ABOVE;
         double ss = 0;
@@ -206,12 +207,7 @@ public final class CalendarRegression implements Candidate {
                 best = e;
             }
         }
-        if (best == null) {
-            return null;
-        }
-        SeasonalArima.Estimate polished = SeasonalArima.estimate(residuals, best.order(), best.u(),
-                exact ? SeasonalArima.Effort.WARM : SeasonalArima.Effort.POLISH, true);
-        return polished == null ? best : polished;
+        return best == null || !exact && !polish ? best : SeasonalArima.polished(residuals, best, exact);
     }
 
     private FittedModel model(double[] y, Estimate e) {

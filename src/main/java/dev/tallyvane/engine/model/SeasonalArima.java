@@ -147,7 +147,7 @@ public final class SeasonalArima implements Candidate {
         if (fixed != null) {
             return this;
         }
-        Estimate e = search(earliestTraining, seasonalPeriod);
+        Estimate e = search(earliestTraining, seasonalPeriod, false);
         return new SeasonalArima(e.order, e.u, earliestTraining.length);
     }
 
@@ -156,7 +156,7 @@ public final class SeasonalArima implements Candidate {
         Residuals.requireLength(y, minimumHistory(seasonalPeriod), name());
         Estimate e;
         if (fixed == null) {
-            e = search(y, seasonalPeriod);
+            e = search(y, seasonalPeriod, true);
         } else {
             double[] w = differenced(transformed(y, fixed.log), fixed);
             e = start != null && y.length <= REUSE_GROWTH * estimatedOn ? reused(w, fixed, start)
@@ -179,6 +179,15 @@ public final class SeasonalArima implements Candidate {
     // ---- choosing the structure -----------------------------------------------------------------
 
     static Estimate search(double[] y, int seasonalPeriod) {
+        return search(y, seasonalPeriod, true);
+    }
+
+    /**
+     * @param polish on a long series (orders compared by conditional sum of squares), whether to estimate
+     *               the chosen order by exact likelihood afterwards; a backtest settles for the conditional
+     *               estimates (the final fit always polishes)
+     */
+    static Estimate search(double[] y, int seasonalPeriod, boolean polish) {
         int n = y.length;
         int m = seasonalPeriod >= 2 && seasonalPeriod <= MAX_SEASON && n >= 3 * seasonalPeriod ? seasonalPeriod : 1;
         boolean log = logHelps(y, m);
@@ -223,8 +232,16 @@ public final class SeasonalArima implements Candidate {
             throw new IllegalArgumentException("no ARIMA model could be fitted (the differenced series has "
                     + w.length + " values" + (isConstant(w) ? " and does not vary" : "") + ")");
         }
-        Estimate refined = estimate(w, best.order, best.u, exact ? Effort.WARM : Effort.POLISH, true);
-        return refined != null && (!exact || refined.aicc <= best.aicc) ? refined : best;
+        return !exact && !polish ? best : polished(w, best, exact);
+    }
+
+    /**
+     * The best order of a search estimated to full precision by exact likelihood, from the search's
+     * estimate; the search's own estimate when that fails (or, when it too was exact, scores better).
+     */
+    static Estimate polished(double[] w, Estimate best, boolean searchedExactly) {
+        Estimate refined = estimate(w, best.order, best.u, searchedExactly ? Effort.WARM : Effort.POLISH, true);
+        return refined != null && (!searchedExactly || refined.aicc <= best.aicc) ? refined : best;
     }
 
     private static Estimate tried(Order o, double[] w, Map<Order, Estimate> tried, boolean exact) {
