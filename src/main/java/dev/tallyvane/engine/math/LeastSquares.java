@@ -105,14 +105,23 @@ public final class LeastSquares {
                 a[j][i] = design[i][j] / norms[j];
             }
         }
-        Householder qr = new Householder(copy(a), n, p);
+        Householder qr = new Householder(refinements > 0 ? copy(a) : a, n, p);
 
         // first solve
         double[] qty = qr.applyQt(y.clone());
         double[] beta = qr.solveR(java.util.Arrays.copyOf(qty, p));
         double[] r = new double[n];
         for (int i = 0; i < n; i++) {
-            r[i] = residualRow(design, norms, beta, y[i], 0, i);
+            if (refinements > 0) {
+                r[i] = residualRow(design, norms, beta, y[i], 0, i);
+            } else {
+                // without refinement ordinary arithmetic will do (the candidates' fits, many per re-fit)
+                double fitted = 0;
+                for (int j = 0; j < p; j++) {
+                    fitted += design[i][j] / norms[j] * beta[j];
+                }
+                r[i] = y[i] - fitted;
+            }
         }
         // refinement of [I A; Aᵀ 0][r; x] = [y; 0]
         for (int pass = 0; pass < refinements; pass++) {

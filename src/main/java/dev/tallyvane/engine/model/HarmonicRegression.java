@@ -23,9 +23,16 @@ public final class HarmonicRegression implements Candidate {
     private final double year;
     private final boolean weekdays;
     private final int[] harmonics;
+    /** The number of harmonics settled on a backtest's earliest window; 0 = chosen by AICc on each fit. */
+    private final int settledHarmonics;
 
     /** For weekly (m = 52) or daily (m = 7) data; any other m is refused. */
     public HarmonicRegression(int seasonalPeriod) {
+        this(seasonalPeriod, 0);
+    }
+
+    private HarmonicRegression(int seasonalPeriod, int settledHarmonics) {
+        this.settledHarmonics = settledHarmonics;
         this.seasonalPeriod = seasonalPeriod;
         switch (seasonalPeriod) {
             case 52 -> {
@@ -75,6 +82,9 @@ public final class HarmonicRegression implements Candidate {
         int bestK = 0;
         double bestAicc = Double.POSITIVE_INFINITY;
         for (int k : harmonics) {
+            if (settledHarmonics > 0 && k != settledHarmonics) {
+                continue;
+            }
             int kk = k;
             if (2 + 2 * kk + (weekdays ? 6 : 0) + 3 > n) {
                 break;
@@ -96,6 +106,16 @@ public final class HarmonicRegression implements Candidate {
         params.put("harmonics", (double) chosen);
         params.put("aicc", bestAicc);
         return Regression.model(y, row, best, params, name() + ", K = " + chosen + " (by AICc)");
+    }
+
+    /** In a backtest the number of harmonics is chosen once, on the earliest window; the fit is redone at each origin. */
+    @Override
+    public Candidate forOrigins(double[] earliestTraining, int seasonalPeriod) {
+        if (settledHarmonics > 0 || earliestTraining.length < minimumHistory(seasonalPeriod)) {
+            return this;
+        }
+        int k = fit(earliestTraining, seasonalPeriod).parameters().get("harmonics").intValue();
+        return new HarmonicRegression(seasonalPeriod, k);
     }
 
     private double[] row(int t, double centre, int k) {
