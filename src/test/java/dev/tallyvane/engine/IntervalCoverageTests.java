@@ -54,7 +54,7 @@ class IntervalCoverageTests {
     }
 
     private static void assertCalibrated(Coverage c) {
-        assertThat(c.c95()).as("95%% interval coverage").isBetween(92.0, 98.0);
+        assertThat(c.c95()).as("95%% interval coverage (80%%: %.2f)", c.c80()).isBetween(92.0, 98.0);
         assertThat(c.c80()).as("80%% interval coverage").isBetween(77.0, 83.0);
     }
 

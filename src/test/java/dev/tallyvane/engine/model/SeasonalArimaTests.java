@@ -220,4 +220,76 @@ class SeasonalArimaTests {
         });
         return out;
     }
+
+    /**
+     * ψ-weight intervals with the true coefficients: 1,000 simulated AR(1) series (φ = 0.6, σ = 20), the
+     * Kalman filter's forecast 1–6 steps ahead and σ_h from the ψ-weights; the share inside the 80% and
+     * 95% intervals must be the stated one within about three binomial standard errors of 1,000
+     * independent series (1.3 and 0.7 points; common practice).
+     */
+    @Test
+    void psiWeightIntervalsWithTheTrueCoefficientsCoverAsStated() {
+        Random random = new Random(505);
+        ArmaStateSpace space = new ArmaStateSpace(new double[] {0.6}, new double[0]);
+        double[] psi = ArmaStateSpace.psiWeights(new double[] {0.6}, new double[0], 6);
+        for (int h = 1; h <= 6; h++) {
+            int in80 = 0;
+            int in95 = 0;
+            Random r = new Random(random.nextLong());
+            for (int s = 0; s < 1000; s++) {
+                double[] w = new double[120 + h];
+                double e = 0;
+                for (int t = 0; t < w.length; t++) {
+                    e = 0.6 * e + 20 * r.nextGaussian();
+                    w[t] = e;
+                }
+                ArmaStateSpace.Pass pass = space.filter(java.util.Arrays.copyOf(w, 120), false);
+                double mean = space.forecast(pass.finalState(), h)[h - 1];
+                double sumPsi2 = 0;
+                for (int j = 0; j < h; j++) {
+                    sumPsi2 += psi[j] * psi[j];
+                }
+                double z = Math.abs(w[119 + h] - mean) / (20 * Math.sqrt(sumPsi2));
+                in80 += z <= 1.2815516 ? 1 : 0;
+                in95 += z <= 1.9599640 ? 1 : 0;
+            }
+            assertThat(in80 / 10.0).as("80%% coverage %d ahead", h).isBetween(76.2, 83.8);
+            assertThat(in95 / 10.0).as("95%% coverage %d ahead", h).isBetween(92.9, 97.1);
+        }
+    }
+
+    /**
+     * The same with estimated coefficients (AR(1) with mean on 120 periods, 400 series × 6 steps): the
+     * plug-in intervals ignore the uncertainty of φ̂, μ̂ and σ̂ (FPP3 §9.5 makes the remark; the ML σ̂² is
+     * also biased low by about k/N), which costs about 4 points at 80% here (measured: 75.7% and 92.9%;
+     * 76.5% and 92.9% on 1,000 series). The bar is set a little below the nominal band accordingly; with the
+     * order chosen automatically as well the engine measured 75.0% / 91.8% on the same process.
+     */
+    @Test
+    void psiWeightIntervalsOfAnEstimatedAr1UnderCoverAsMuchAsTheEstimationExplains() {
+        Random random = new Random(505);
+        SeasonalArima.Order ar1 = new SeasonalArima.Order(1, 0, 0, 0, 0, 0, 1, true, false);
+        int in80 = 0;
+        int in95 = 0;
+        int total = 0;
+        for (int s = 0; s < 400; s++) {
+            double[] y = new double[126];
+            double e = 0;
+            for (int t = 0; t < y.length; t++) {
+                e = 0.6 * e + 20 * random.nextGaussian();
+                y[t] = 800 + e;
+            }
+            PointForecast f = SeasonalArima.withOrder(ar1).fit(java.util.Arrays.copyOf(y, 120), 1).forecast(6);
+            for (int h = 1; h <= 6; h++) {
+                double actual = y[119 + h];
+                double[] i80 = f.interval(h, 1.2815516);
+                double[] i95 = f.interval(h, 1.9599640);
+                in80 += actual >= i80[0] && actual <= i80[1] ? 1 : 0;
+                in95 += actual >= i95[0] && actual <= i95[1] ? 1 : 0;
+                total++;
+            }
+        }
+        assertThat(100.0 * in95 / total).as("95%% coverage, 80%%: %.2f", 100.0 * in80 / total).isBetween(91.0, 98.0);
+        assertThat(100.0 * in80 / total).isBetween(74.0, 83.0);
+    }
 }
