@@ -37,7 +37,7 @@ import java.util.Map;
  * <li><b>Estimation</b>: exact Gaussian maximum likelihood of the differenced series
  * ({@link ArmaStateSpace}, Kalman filter), each polynomial searched through its partial
  * autocorrelations so that every model tried is stationary and invertible; series longer than 150
- * compare orders by conditional sum of squares and estimate the chosen one by exact likelihood
+ * (or with more than 12 periods a cycle) compare orders by conditional sum of squares and estimate the chosen one by exact likelihood
  * (Hyndman &amp; Khandakar's approximation);</li>
  * <li><b>Forecasts</b>: the Kalman filter's final state projected ahead and the differencing undone;
  * σ_h² = σ̂²(ψ₀² + … + ψ_{h−1}²) from the ψ-weights of the full model including the differencing
@@ -63,7 +63,12 @@ public final class SeasonalArima implements Candidate {
     static final int MAX_SEASON = 24;
     static final double STRONG_SEASON = 0.64;
     private static final int MAX_MODELS = 40;
-    /** Longer series search their order by conditional sum of squares (as Hyndman &amp; Khandakar do above 150). */
+    /**
+     * Longer series, and series with more than 12 periods a cycle (weekly, whose yearly cycle is left to
+     * the harmonic regression), search their order by conditional sum of squares, as Hyndman &amp;
+     * Khandakar's implementation does (from memory: its default approximates above 150 values or
+     * above 12 periods a cycle).
+     */
     static final int APPROXIMATE_ABOVE = 150;
     /**
      * In a backtest, coefficients estimated on the earliest window are kept (only the filter runs again)
@@ -200,7 +205,7 @@ public final class SeasonalArima implements Candidate {
             d++;
         }
         double[] w = x;
-        boolean exact = n <= APPROXIMATE_ABOVE;
+        boolean exact = n <= APPROXIMATE_ABOVE && seasonalPeriod <= 12;
         boolean constant = d + sd <= 1;
         Map<Order, Estimate> tried = new HashMap<>();
         List<Order> first = new ArrayList<>();
