@@ -79,7 +79,8 @@ public final class PolynomialTrend implements Candidate {
         int n = y.length;
         double centre = (n - 1) / 2.0;
         java.util.function.IntFunction<double[]> row = t -> row(t, centre, m);
-        LeastSquares.Fit fit = Regression.leastSquares(y, row, 3);
+        // one refinement pass: time is centred and scaled, so the design is well conditioned even at degree 3
+        LeastSquares.Fit fit = Regression.leastSquares(y, row, 1);
         Map<String, Double> params = new LinkedHashMap<>();
         double[] b = fit.coefficients();
         for (int j = 0; j < b.length; j++) {

@@ -103,7 +103,7 @@ public final class TradingDayRegression implements Candidate {
         double centre = (y.length - 1) / 2.0;
         PolynomialTrend trend = trend(m);
         java.util.function.IntFunction<double[]> row = t -> row(trend, t, centre, m);
-        LeastSquares.Fit fit = Regression.leastSquares(y, row, 3);
+        LeastSquares.Fit fit = Regression.leastSquares(y, row, 1);
         Map<String, Double> params = new LinkedHashMap<>();
         double[] beta = fit.coefficients();
         int offset = trend.columns(m);
