@@ -91,14 +91,15 @@ public final class ForecastEngine {
                 || request.candidateKeys().contains(CalendarRegression.KEY))) {
             candidates.add(new CalendarRegression(series.periodAt(data.offset()), series.calendar()));
         }
+        int step = request.originStep(series.granularity());
         RollingOriginBacktest backtest = RollingOriginBacktest.plan(n, h, request.maxOrigins(),
-                request.originStep(), MINIMUM_TRAINING);
+                step, MINIMUM_TRAINING);
         int seasonalNeeds = new SeasonalNaive().minimumHistory(m);
         if (m >= 2 && n >= 2 * m && (backtest.originCount() == 0 || backtest.earliestTraining() < seasonalNeeds)) {
             // two seasonal cycles, yet too short to test a seasonal method h periods ahead: compare on the
             // lead times the data hold rather than leave every seasonal method out
             RollingOriginBacktest shorter = RollingOriginBacktest.planAllLeadTimes(n, h, request.maxOrigins(),
-                    request.originStep(), Math.max(MINIMUM_TRAINING, seasonalNeeds));
+                    step, Math.max(MINIMUM_TRAINING, seasonalNeeds));
             if (shorter.originCount() > 0) {
                 backtest = shorter;
                 notes.add(String.format(Locale.ROOT, "%d periods are too few to test seasonal methods %d periods "
@@ -113,7 +114,7 @@ public final class ForecastEngine {
             int needed = c.minimumHistory(m);
             if (backtest.originCount() == 0 || needed > backtest.earliestTraining()) {
                 int total = Math.max(needed, MINIMUM_TRAINING) + h + (Math.max(1, backtest.originCount()) - 1)
-                        * request.originStep();
+                        * step;
                 unscored.add(new LeaderboardEntry(c.key(), c.name(), c.complexity(),
                         LeaderboardEntry.Status.NOT_ENOUGH_HISTORY, Map.of(), 0, 0, 0,
                         "needs about " + total + " periods for an out-of-sample test at this horizon; has " + n));

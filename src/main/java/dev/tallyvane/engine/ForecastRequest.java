@@ -12,7 +12,8 @@ import java.util.Set;
  * @param candidateKeys  keys of the candidates to consider; empty = all
  * @param customWeights  owner's weighted-moving-average weights (w₁ = most recent), or null
  * @param maxOrigins     rolling origins (at most; fewer with short data)
- * @param originStep     periods between origins
+ * @param originStep     periods between origins; 0 = by granularity ({@link #DAILY_ORIGIN_STEP} days for
+ *                       daily series, one period otherwise)
  * @param seasonalPeriod override of the granularity's seasonal period; 0 = the granularity's,
  *                       1 = no seasonality
  */
@@ -20,6 +21,13 @@ public record ForecastRequest(int horizon, Metric metric, Set<String> candidateK
         int maxOrigins, int originStep, int seasonalPeriod) {
 
     public static final int MAX_HORIZON = 400;
+
+    /**
+     * Days between the default origins of a daily series: origins one day apart forecast nearly the
+     * same days, so six of them are close to a single test; a week apart they cover six different
+     * weeks (the accuracy harness measured the choice: docs/benchmarks.md).
+     */
+    public static final int DAILY_ORIGIN_STEP = 7;
 
     public ForecastRequest {
         Objects.requireNonNull(metric, "metric");
@@ -30,8 +38,8 @@ public record ForecastRequest(int horizon, Metric metric, Set<String> candidateK
         if (maxOrigins < 1) {
             throw new IllegalArgumentException("origins must be ≥ 1, got " + maxOrigins);
         }
-        if (originStep < 1) {
-            throw new IllegalArgumentException("origin step must be ≥ 1, got " + originStep);
+        if (originStep < 0) {
+            throw new IllegalArgumentException("origin step must be ≥ 1 (or 0 for the default), got " + originStep);
         }
         if (seasonalPeriod < 0) {
             throw new IllegalArgumentException("seasonal period must be ≥ 0, got " + seasonalPeriod);
@@ -39,9 +47,17 @@ public record ForecastRequest(int horizon, Metric metric, Set<String> candidateK
         customWeights = customWeights == null ? null : customWeights.clone();
     }
 
-    /** Horizon h with the defaults: MSE, all candidates, 6 origins one period apart. */
+    /** Horizon h with the defaults: MSE, all candidates, 6 origins one period apart (a week apart for days). */
     public static ForecastRequest of(int horizon) {
-        return new ForecastRequest(horizon, Metric.MSE, Set.of(), null, 6, 1, 0);
+        return new ForecastRequest(horizon, Metric.MSE, Set.of(), null, 6, 0, 0);
+    }
+
+    /** The periods between origins for a series of the given granularity. */
+    public int originStep(dev.tallyvane.engine.series.Granularity granularity) {
+        if (originStep > 0) {
+            return originStep;
+        }
+        return granularity == dev.tallyvane.engine.series.Granularity.DAY ? DAILY_ORIGIN_STEP : 1;
     }
 
     public ForecastRequest withMetric(Metric m) {

@@ -135,7 +135,8 @@ class AccuracyHarness {
 
     /**
      * The engine's defaults, except that {@code -Dharness.step.day=N} / {@code -Dharness.step.week=N}
-     * space the rolling origins of daily / weekly series N periods apart (to measure the choice).
+     * space the rolling origins of daily / weekly series N periods apart (to measure the choice; the
+     * default is a week for days, one period otherwise).
      */
     static ForecastRequest request(Case c) {
         // the engine forecasts from the last observed period: a training part ending on closed days needs
@@ -297,7 +298,7 @@ class AccuracyHarness {
         }
     }
 
-    /** {MASE over the backtest, milliseconds}; the origins are the engine's defaults (6, one horizon apart). */
+    /** {MASE over the backtest, milliseconds}; the origins are the engine's defaults. */
     private static double[] run(Candidate k, Case c, boolean settled) {
         double[] y = filled(c);
         int h = c.holdout().length;
@@ -306,7 +307,8 @@ class AccuracyHarness {
             ok[t] = !c.train().isClosed(t);
         }
         ForecastRequest defaults = ForecastRequest.of(h);
-        RollingOriginBacktest plan = RollingOriginBacktest.plan(y.length, h, defaults.maxOrigins(), defaults.originStep(),
+        RollingOriginBacktest plan = RollingOriginBacktest.plan(y.length, h, defaults.maxOrigins(),
+                defaults.originStep(c.train().granularity()),
                 Math.max(4, k.minimumHistory(c.m())));
         if (plan.originCount() == 0) {
             return new double[] {Double.NaN, 0};

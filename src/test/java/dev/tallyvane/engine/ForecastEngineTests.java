@@ -233,4 +233,20 @@ class ForecastEngineTests {
         assertThat(p.hi95() - p.forecast()).isCloseTo(p.forecast() - p.lo95(), within(1e-9));
         assertThat(p.hi95() - p.lo95()).isGreaterThan(p.hi80() - p.lo80());
     }
+
+    @Test
+    void dailyOriginsAreAWeekApartByDefault() {
+        assertThat(ForecastRequest.of(28).originStep(Granularity.DAY)).isEqualTo(7);
+        assertThat(ForecastRequest.of(8).originStep(Granularity.WEEK)).isEqualTo(1);
+        assertThat(ForecastRequest.of(12).originStep(Granularity.MONTH)).isEqualTo(1);
+        assertThat(ForecastRequest.of(28).withOrigins(6, 2).originStep(Granularity.DAY)).isEqualTo(2);
+        // 40 days, 14 ahead: six origins one day apart fit, a week apart fewer do (the series is too short)
+        double[] y = new double[40];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = 100 + 10 * Math.sin(2 * Math.PI * t / 7) + t % 3;
+        }
+        Series s = new Series(Granularity.DAY, java.time.LocalDate.of(2026, 1, 5), y);
+        assertThat(ForecastEngine.forecast(s, ForecastRequest.of(14).withOrigins(6, 1)).originCount()).isEqualTo(6);
+        assertThat(ForecastEngine.forecast(s, ForecastRequest.of(14)).originCount()).isBetween(1, 5);
+    }
 }
