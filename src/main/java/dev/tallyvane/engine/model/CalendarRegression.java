@@ -33,7 +33,7 @@ import java.util.Map;
  *
  * <p>In a backtest the number of harmonics and the error order are settled on the earliest window;
  * the regression is refitted at every origin and the error coefficients are reused while windows grow
- * by at most a quarter ({@link SeasonalArima#REUSE_GROWTH}).
+ * by at most a quarter ({@link Candidate#REUSE_GROWTH}).
  */
 public final class CalendarRegression implements Candidate {
 
@@ -172,7 +172,7 @@ public final class CalendarRegression implements Candidate {
         if (fixed != null) {
             order = fixed.errorOrder;
             u = fixed.errorU;
-            if (order != null && n > SeasonalArima.REUSE_GROWTH * fixed.estimatedOn) {
+            if (order != null && n > REUSE_GROWTH * fixed.estimatedOn) {
                 SeasonalArima.Estimate e = SeasonalArima.estimate(residuals, order, u);
                 u = e == null ? u : e.u();
             }

@@ -10,6 +10,13 @@ package dev.tallyvane.engine.model;
  */
 public interface Candidate {
 
+    /**
+     * How much longer than the earliest window a training window may be for estimates settled on that
+     * window ({@link #forOrigins}) to be reused as they are; beyond it they are re-estimated. The six
+     * default origins lie well within it on any series of a useful length.
+     */
+    double REUSE_GROWTH = 1.25;
+
     /** A stable key for settings and reports, e.g. {@code ma3}, {@code ets}, {@code poly2s}. */
     String key();
 

@@ -47,13 +47,6 @@ public final class ExponentialSmoothing implements Candidate {
     private static final double EPS = 1e-4;
     private static final int MAX_SEASON = 24;
 
-    /**
-     * In a backtest, the form, smoothing parameters and initial states estimated on the earliest window
-     * are kept (the recursion only runs on) until a window is this much longer; beyond it the settled
-     * form alone is re-estimated. Every window starts at the same period, so the initial states stay
-     * meaningful.
-     */
-    static final double REUSE_GROWTH = 1.25;
 
     private final EtsForm fixedForm;
     private final Estimate settled;
@@ -75,6 +68,12 @@ public final class ExponentialSmoothing implements Candidate {
         this.estimatedOn = estimatedOn;
     }
 
+    /**
+     * In a backtest the form, smoothing parameters and initial states estimated on the earliest window are
+     * kept, and only the recursion runs on, while a window is at most {@link Candidate#REUSE_GROWTH} times
+     * longer; beyond it the settled form alone is re-estimated. Every window starts at the same period,
+     * so the initial states stay meaningful.
+     */
     @Override
     public Candidate forOrigins(double[] earliestTraining, int seasonalPeriod) {
         if (earliestTraining.length < minimumHistory(seasonalPeriod)) {

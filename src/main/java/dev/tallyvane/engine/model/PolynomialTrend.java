@@ -27,13 +27,32 @@ public final class PolynomialTrend implements Candidate {
 
     private final int degree;
     private final boolean seasonal;
+    /** Point forecasts only, by the within-season route below (a backtest needs no intervals). */
+    private final boolean pointsOnly;
 
     public PolynomialTrend(int degree, boolean seasonal) {
+        this(degree, seasonal, false);
+    }
+
+    private PolynomialTrend(int degree, boolean seasonal, boolean pointsOnly) {
         if (degree < 1 || degree > 3) {
             throw new IllegalArgumentException("polynomial degree must be 1, 2 or 3, got " + degree);
         }
         this.degree = degree;
         this.seasonal = seasonal;
+        this.pointsOnly = pointsOnly;
+    }
+
+    /**
+     * In a backtest only the point forecasts count: with seasonal dummies they are computed through the
+     * Frisch-Waugh-Lovell theorem (Davidson &amp; MacKinnon, <i>Econometric Theory and Methods</i>, 2004,
+     * §2.4): the trend coefficients are those of y on the powers of u, each demeaned within its season, and
+     * each season's level is its mean of y less the trend's mean there. The same least-squares solution
+     * with d columns instead of d + m, which matters for weekly data (m = 52).
+     */
+    @Override
+    public Candidate forOrigins(double[] earliestTraining, int seasonalPeriod) {
+        return seasonal && !pointsOnly ? new PolynomialTrend(degree, true, true) : this;
     }
 
     @Override
@@ -76,6 +95,12 @@ public final class PolynomialTrend implements Candidate {
             throw new IllegalArgumentException(name() + " needs a seasonal period ≥ 2, got " + m);
         }
         Residuals.requireLength(y, minimumHistory(m), name());
+        if (pointsOnly) {
+            FittedModel quick = withinSeasons(y, m);
+            if (quick != null) {
+                return quick;
+            }
+        }
         int n = y.length;
         double centre = (n - 1) / 2.0;
         java.util.function.IntFunction<double[]> row = t -> row(t, centre, m);
@@ -87,6 +112,73 @@ public final class PolynomialTrend implements Candidate {
             params.put(j <= degree ? "b" + j : "season" + (j - degree), b[j]);
         }
         return Regression.model(y, row, fit, params, name() + " (time centred and scaled)");
+    }
+
+    /** Point forecasts by the within-season route (see {@link #forOrigins}); null where it does not apply. */
+    private FittedModel withinSeasons(double[] y, int m) {
+        int n = y.length;
+        double centre = (n - 1) / 2.0;
+        double[][] means = new double[m][degree + 1]; // [season][0] mean of y, [season][k] mean of u^k
+        int[] count = new int[m];
+        for (int t = 0; t < n; t++) {
+            int season = t % m;
+            count[season]++;
+            means[season][0] += y[t];
+            double u = centre == 0 ? 0 : (t - centre) / centre;
+            double power = u;
+            for (int k = 1; k <= degree; k++) {
+                means[season][k] += power;
+                power *= u;
+            }
+        }
+        for (int season = 0; season < m; season++) {
+            if (count[season] == 0) {
+                return null;
+            }
+            for (int k = 0; k <= degree; k++) {
+                means[season][k] /= count[season];
+            }
+        }
+        double[][] x = new double[n][degree];
+        double[] z = new double[n];
+        for (int t = 0; t < n; t++) {
+            int season = t % m;
+            double u = centre == 0 ? 0 : (t - centre) / centre;
+            double power = u;
+            for (int k = 1; k <= degree; k++) {
+                x[t][k - 1] = power - means[season][k];
+                power *= u;
+            }
+            z[t] = y[t] - means[season][0];
+        }
+        double[] b;
+        try {
+            b = LeastSquares.fit(x, z, 1).coefficients();
+        } catch (IllegalArgumentException degenerate) {
+            return null;
+        }
+        java.util.function.IntToDoubleFunction value = t -> {
+            int season = t % m;
+            double u = centre == 0 ? 0 : (t - centre) / centre;
+            double v = means[season][0];
+            double power = u;
+            for (int k = 1; k <= degree; k++) {
+                v += b[k - 1] * (power - means[season][k]);
+                power *= u;
+            }
+            return v;
+        };
+        double[] fitted = new double[n];
+        for (int t = 0; t < n; t++) {
+            fitted[t] = value.applyAsDouble(t);
+        }
+        return new Fit(fitted, h -> {
+            double[] mean = new double[h];
+            for (int i = 0; i < h; i++) {
+                mean[i] = value.applyAsDouble(n + i);
+            }
+            return PointForecast.withoutIntervals(mean);
+        }, Map.of(), name() + " (point forecasts within seasons)");
     }
 
     /** The design row of period t: powers of the centred time u_t, then the season's dummy. */

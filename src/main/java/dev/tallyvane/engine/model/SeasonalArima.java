@@ -70,11 +70,6 @@ public final class SeasonalArima implements Candidate {
      * above 12 periods a cycle).
      */
     static final int APPROXIMATE_ABOVE = 150;
-    /**
-     * In a backtest, coefficients estimated on the earliest window are kept (only the filter runs again)
-     * until a window is this much longer; beyond it they are re-estimated from them.
-     */
-    static final double REUSE_GROWTH = 1.25;
     private static final double BOUND = 5;
 
     /**

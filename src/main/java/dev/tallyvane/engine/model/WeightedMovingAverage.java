@@ -28,10 +28,33 @@ public final class WeightedMovingAverage implements Candidate {
 
     private final double[] userWeights;
     private final int fittedLength;
+    /** Weights fitted on a backtest's earliest window, and its length (see {@link #forOrigins}). */
+    private final double[] settledWeights;
+    private final int estimatedOn;
 
     private WeightedMovingAverage(double[] userWeights, int fittedLength) {
+        this(userWeights, fittedLength, null, 0);
+    }
+
+    private WeightedMovingAverage(double[] userWeights, int fittedLength, double[] settledWeights, int estimatedOn) {
         this.userWeights = userWeights;
         this.fittedLength = fittedLength;
+        this.settledWeights = settledWeights;
+        this.estimatedOn = estimatedOn;
+    }
+
+    /**
+     * In a backtest fitted weights are estimated once, on the earliest window, and reused while a window
+     * is at most a quarter longer ({@link Candidate#REUSE_GROWTH}), as the other fitted
+     * candidates do.
+     */
+    @Override
+    public Candidate forOrigins(double[] earliestTraining, int seasonalPeriod) {
+        if (userWeights != null || settledWeights != null || earliestTraining.length < minimumHistory(seasonalPeriod)) {
+            return this;
+        }
+        return new WeightedMovingAverage(null, fittedLength, fitWeights(earliestTraining, fittedLength),
+                earliestTraining.length);
     }
 
     /** A WMA with the owner's weights, w₁ on the most recent period. */
@@ -102,7 +125,8 @@ public final class WeightedMovingAverage implements Candidate {
                     "Weighted moving average, weights " + Arrays.toString(userWeights));
         }
         Residuals.requireLength(y, minimumHistory(seasonalPeriod), name());
-        double[] w = fitWeights(y, fittedLength);
+        double[] w = settledWeights != null && y.length <= REUSE_GROWTH * estimatedOn
+                ? settledWeights : fitWeights(y, fittedLength);
         return MovingAverage.weightedAverageFit(y, w, MovingAverage.weightParameters(w),
                 "Weighted moving average, fitted weights");
     }

@@ -216,4 +216,26 @@ class CandidatesTests {
                 .hasMessageContaining("needs ≥ 26 periods, got 10");
         assertThatThrownBy(() -> new PolynomialTrend(4, false)).hasMessageContaining("got 4");
     }
+
+    @Test
+    void trendWithSeasonalDummiesGivesTheSamePointForecastsWithinSeasonsInABacktest() {
+        // Frisch-Waugh-Lovell: the within-season route is the same least-squares solution (common practice)
+        java.util.Random r = new java.util.Random(52);
+        for (int m : new int[] {7, 12, 52}) {
+            double[] y = new double[3 * m + 11];
+            for (int t = 0; t < y.length; t++) {
+                y[t] = 500 + 2 * t - 0.01 * t * t + 40 * Math.sin(2 * Math.PI * (t % m) / m) + 10 * r.nextGaussian();
+            }
+            for (int degree = 1; degree <= 2; degree++) {
+                PolynomialTrend full = new PolynomialTrend(degree, true);
+                Candidate quick = full.forOrigins(y, m);
+                assertThat(quick).isNotSameAs(full);
+                double[] a = full.fit(y, m).forecast(10).mean();
+                double[] b = quick.fit(y, m).forecast(10).mean();
+                for (int h = 0; h < 10; h++) {
+                    assertThat(b[h]).isCloseTo(a[h], org.assertj.core.api.Assertions.within(1e-8 * Math.abs(a[h])));
+                }
+            }
+        }
+    }
 }
