@@ -122,7 +122,7 @@ public final class ForecastEngine {
             }
             try {
                 RollingOriginBacktest.Outcome outcome = backtest.run(c, data.filled(), data.scorable(), m);
-                scored.add(new Scored(c, outcome, outcome.errors().compute(request.metric())));
+                scored.add(new Scored(c, outcome, backtest.score(outcome, request.metric())));
             } catch (RuntimeException e) {
                 unscored.add(new LeaderboardEntry(c.key(), c.name(), c.complexity(), LeaderboardEntry.Status.FAILED,
                         Map.of(), 0, 0, 0, String.valueOf(e.getMessage())));
@@ -141,7 +141,7 @@ public final class ForecastEngine {
                 Combination combination = new Combination(best.stream().map(Scored::candidate).toList(), rule);
                 RollingOriginBacktest.Outcome outcome = backtest.score(combination.combine(best.stream()
                         .map(s -> s.outcome.forecasts()).toList()), data.filled(), data.scorable(), m);
-                scored.add(new Scored(combination, outcome, outcome.errors().compute(metric)));
+                scored.add(new Scored(combination, outcome, backtest.score(outcome, metric)));
             }
         }
         scored.sort(order);

@@ -52,7 +52,8 @@ public final class RollingOriginBacktest {
     /**
      * For a series too short to test at the full horizon: origins run up to the last period but
      * one, and each is scored on the lead times the data still hold (Tashman 2000 discusses
-     * scoring every available lead time), so errors at short lead times weigh more. Used only when the
+     * scoring every available lead time); candidates are then ranked with every lead time weighted
+     * alike ({@link #score(Outcome, Metric)}), else the many short-lead errors decide. Used only when the
      * full-horizon plan would leave the seasonal methods out of a series with two seasonal cycles.
      */
     public static RollingOriginBacktest planAllLeadTimes(int n, int horizon, int maxOrigins, int step,
@@ -87,7 +88,28 @@ public final class RollingOriginBacktest {
      * The errors of one candidate over every origin, pooled and by horizon step, and its forecasts
      * (origin × step) for combining.
      */
-    public record Outcome(ErrorSample errors, double[] sumSquaredByStep, int[] countByStep, double[][] forecasts) {
+    public record Outcome(ErrorSample errors, double[] sumSquaredByStep, int[] countByStep, double[][] forecasts,
+            ErrorSample[] errorsByStep) {
+
+        /**
+         * The metric over every lead time with equal weight: the mean over steps 1..h of the metric of
+         * each step's errors. With origins up to the last period ({@link #planAllLeadTimes}) short lead
+         * times have more errors than long ones; this keeps them from deciding alone.
+         */
+        public double balanced(Metric metric) {
+            double sum = 0;
+            int steps = 0;
+            for (ErrorSample step : errorsByStep) {
+                if (step.size() > 0) {
+                    double v = step.compute(metric);
+                    if (Double.isFinite(v)) {
+                        sum += v;
+                        steps++;
+                    }
+                }
+            }
+            return steps == 0 ? Double.NaN : sum / steps;
+        }
 
         /** Root mean squared error at step h (1-based), NaN when there is none. */
         public double rmseAt(int step) {
@@ -115,9 +137,21 @@ public final class RollingOriginBacktest {
         return score(forecasts, y, scorable, seasonalPeriod);
     }
 
+    /**
+     * The candidate's score by the metric: over all its errors pooled, or, when every lead time the data
+     * hold is scored ({@link #planAllLeadTimes}), the mean of each lead time's metric.
+     */
+    public double score(Outcome outcome, Metric metric) {
+        return allLeadTimes ? outcome.balanced(metric) : outcome.errors().compute(metric);
+    }
+
     /** Scores forecasts made at this backtest's origins (origin × step) against the data. */
     public Outcome score(double[][] forecasts, double[] y, boolean[] scorable, int seasonalPeriod) {
         ErrorSample errors = new ErrorSample();
+        ErrorSample[] byStep = new ErrorSample[horizon];
+        for (int h = 0; h < horizon; h++) {
+            byStep[h] = new ErrorSample();
+        }
         double[] sumSq = new double[horizon];
         int[] counts = new int[horizon];
         for (int i = 0; i < origins.length; i++) {
@@ -128,11 +162,12 @@ public final class RollingOriginBacktest {
                 if (t < y.length && scorable[t]) {
                     double e = y[t] - forecasts[i][h - 1];
                     errors.add(y[t], forecasts[i][h - 1], scale);
+                    byStep[h - 1].add(y[t], forecasts[i][h - 1], scale);
                     sumSq[h - 1] += e * e;
                     counts[h - 1]++;
                 }
             }
         }
-        return new Outcome(errors, sumSq, counts, forecasts);
+        return new Outcome(errors, sumSq, counts, forecasts, byStep);
     }
 }

@@ -1,0 +1,34 @@
+package dev.tallyvane.engine.evaluation;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import java.util.Arrays;
+import org.junit.jupiter.api.Test;
+
+/** How a backtest scores forecasts: pooled at the full horizon, lead times weighted alike when all are scored. */
+class RollingOriginBacktestTests {
+
+    @Test
+    void allLeadTimesWeighEachStepAlike() {
+        // 10 periods, horizon 3, origins up to the last period but one: 7, 8, 9 (training lengths)
+        RollingOriginBacktest plan = RollingOriginBacktest.planAllLeadTimes(10, 3, 3, 1, 4);
+        assertThat(plan.allLeadTimes()).isTrue();
+        assertThat(plan.earliestTraining()).isEqualTo(7);
+        double[] y = {0, 0, 0, 0, 0, 0, 0, 10, 10, 10};
+        boolean[] ok = new boolean[10];
+        Arrays.fill(ok, true);
+        // every forecast 8: errors 2 at step 1 (three origins), step 2 (two), step 3 (one); make step 3 worse
+        double[][] forecasts = {{8, 8, 4}, {8, 8, 8}, {8, 8, 8}};
+        RollingOriginBacktest.Outcome o = plan.score(forecasts, y, ok, 1);
+        // pooled MSE: errors at periods 8, 9, 10 from origin 7 (2, 2, 6), 9, 10 from origin 8 (2, 2),
+        // 10 from origin 9 (2): (4 + 4 + 36 + 4 + 4 + 4) / 6 = 56 / 6
+        assertThat(o.errors().compute(Metric.MSE)).isCloseTo(56.0 / 6, within(1e-12));
+        // balanced: step 1 MSE 4, step 2 MSE 4, step 3 MSE 36 -> (4 + 4 + 36) / 3
+        assertThat(plan.score(o, Metric.MSE)).isCloseTo(44.0 / 3, within(1e-12));
+        RollingOriginBacktest full = RollingOriginBacktest.plan(10, 3, 3, 1, 4);
+        assertThat(full.allLeadTimes()).isFalse();
+        RollingOriginBacktest.Outcome pooled = full.score(new double[][] {{8, 8, 8}, {8, 8, 8}, {8, 8, 8}}, y, ok, 1);
+        assertThat(full.score(pooled, Metric.MSE)).isEqualTo(pooled.errors().compute(Metric.MSE));
+    }
+}
