@@ -238,7 +238,7 @@ public final class ForecastEngine {
                 continue;
             }
             double r = outcome.rmseAt(step);
-            int count = outcome.countByStep()[step - 1];
+            int count = outcome.countAt(step);
             if (Double.isFinite(r)) {
                 runningSd = Math.max(runningSd, r);
                 lastDf = Math.max(1, count);

@@ -2,12 +2,10 @@ package dev.tallyvane.e2e;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.net.ServerSocket;
 import java.net.URI;
 import java.net.http.HttpRequest;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -80,15 +78,7 @@ final class ServiceJar {
     }
 
     /** A POST of one file as the upload form sends it, with the page's CSRF token in the header the upload script uses. */
-    HttpRequest upload(String fileName, byte[] content, String pageWithToken) throws IOException {
-        String boundary = "----e2e" + System.nanoTime();
-        ByteArrayOutputStream body = new ByteArrayOutputStream();
-        body.write(("--" + boundary + "\r\nContent-Disposition: form-data; name=\"file\"; filename=\"" + fileName
-                + "\"\r\nContent-Type: text/csv\r\n\r\n").getBytes(StandardCharsets.UTF_8));
-        body.write(content);
-        body.write(("\r\n--" + boundary + "--\r\n").getBytes(StandardCharsets.UTF_8));
-        return HttpRequest.newBuilder(uri("/uploads")).header("X-CSRF-TOKEN", csrf(pageWithToken))
-                .header("Content-Type", "multipart/form-data; boundary=" + boundary)
-                .POST(HttpRequest.BodyPublishers.ofByteArray(body.toByteArray())).build();
+    HttpRequest upload(String fileName, byte[] content, String pageWithToken) {
+        return dev.tallyvane.support.MultipartUpload.of(uri("/uploads"), csrf(pageWithToken), fileName, content);
     }
 }

@@ -9,7 +9,6 @@ import dev.tallyvane.app.TallyvaneApplication;
 import dev.tallyvane.location.LocationDetails;
 import dev.tallyvane.location.LocationService;
 import dev.tallyvane.support.Users;
-import java.io.ByteArrayOutputStream;
 import java.net.CookieManager;
 import java.net.URI;
 import java.net.URLEncoder;
@@ -72,15 +71,7 @@ class LargeInputIntegrationTests {
     }
 
     private HttpResponse<String> upload(String name, byte[] content) throws Exception {
-        String boundary = "----tallyvane" + System.nanoTime();
-        ByteArrayOutputStream body = new ByteArrayOutputStream();
-        body.write(("--" + boundary + "\r\nContent-Disposition: form-data; name=\"file\"; filename=\"" + name
-                + "\"\r\nContent-Type: text/csv\r\n\r\n").getBytes(StandardCharsets.UTF_8));
-        body.write(content);
-        body.write(("\r\n--" + boundary + "--\r\n").getBytes(StandardCharsets.UTF_8));
-        return http.send(HttpRequest.newBuilder(uri("/uploads")).header("X-CSRF-TOKEN", csrf)
-                .header("Content-Type", "multipart/form-data; boundary=" + boundary)
-                .POST(HttpRequest.BodyPublishers.ofByteArray(body.toByteArray())).build(),
+        return http.send(dev.tallyvane.support.MultipartUpload.of(uri("/uploads"), csrf, name, content),
                 HttpResponse.BodyHandlers.ofString());
     }
 

@@ -88,8 +88,7 @@ public final class RollingOriginBacktest {
      * The errors of one candidate over every origin, pooled and by horizon step, and its forecasts
      * (origin × step) for combining.
      */
-    public record Outcome(ErrorSample errors, double[] sumSquaredByStep, int[] countByStep, double[][] forecasts,
-            ErrorSample[] errorsByStep) {
+    public record Outcome(ErrorSample errors, ErrorSample[] errorsByStep, double[][] forecasts) {
 
         /**
          * The metric over every lead time with equal weight: the mean over steps 1..h of the metric of
@@ -113,8 +112,13 @@ public final class RollingOriginBacktest {
 
         /** Root mean squared error at step h (1-based), NaN when there is none. */
         public double rmseAt(int step) {
-            int i = step - 1;
-            return countByStep[i] > 0 ? Math.sqrt(sumSquaredByStep[i] / countByStep[i]) : Double.NaN;
+            ErrorSample at = errorsByStep[step - 1];
+            return at.size() > 0 ? at.compute(Metric.RMSE) : Double.NaN;
+        }
+
+        /** How many errors step h (1-based) has. */
+        public int countAt(int step) {
+            return errorsByStep[step - 1].size();
         }
     }
 
@@ -152,22 +156,17 @@ public final class RollingOriginBacktest {
         for (int h = 0; h < horizon; h++) {
             byStep[h] = new ErrorSample();
         }
-        double[] sumSq = new double[horizon];
-        int[] counts = new int[horizon];
         for (int i = 0; i < origins.length; i++) {
             int origin = origins[i];
             double scale = ErrorSample.maseScale(y, scorable, origin, seasonalPeriod);
             for (int h = 1; h <= horizon; h++) {
                 int t = origin + h - 1;
                 if (t < y.length && scorable[t]) {
-                    double e = y[t] - forecasts[i][h - 1];
                     errors.add(y[t], forecasts[i][h - 1], scale);
                     byStep[h - 1].add(y[t], forecasts[i][h - 1], scale);
-                    sumSq[h - 1] += e * e;
-                    counts[h - 1]++;
                 }
             }
         }
-        return new Outcome(errors, sumSq, counts, forecasts, byStep);
+        return new Outcome(errors, byStep, forecasts);
     }
 }

@@ -53,11 +53,6 @@ public final class ArmaStateSpace {
         p0 = stationaryCovariance();
     }
 
-    /** The state dimension r. */
-    public int dimension() {
-        return r;
-    }
-
     /** What one pass of the filter gives. */
     public record Pass(double sumSquares, double sumLogF, int n, double[] finalState, double[] predictions) {
 

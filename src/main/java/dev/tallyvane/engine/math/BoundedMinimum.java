@@ -23,7 +23,7 @@ import org.apache.commons.math3.optim.univariate.UnivariateObjectiveFunction;
 public final class BoundedMinimum {
 
     /** The best point found and its value. */
-    public record Result(double[] point, double value, int evaluations) {
+    public record Result(double[] point, double value) {
     }
 
     private BoundedMinimum() {
@@ -40,10 +40,8 @@ public final class BoundedMinimum {
             double initialRadius, double finalRadius, int maxEvaluations) {
         double[][] best = {start.clone()};
         double[] bestValue = {f.applyAsDouble(start)};
-        int[] count = {1};
         ToDoubleFunction<double[]> tracked = x -> {
             double v = f.applyAsDouble(x);
-            count[0]++;
             if (v < bestValue[0]) {
                 bestValue[0] = v;
                 best[0] = x.clone();
@@ -63,6 +61,6 @@ public final class BoundedMinimum {
         } catch (TooManyEvaluationsException e) {
             // the best point seen so far stands
         }
-        return new Result(best[0], bestValue[0], count[0]);
+        return new Result(best[0], bestValue[0]);
     }
 }

@@ -5,9 +5,7 @@ import dev.tallyvane.engine.math.LeastSquares;
 import dev.tallyvane.engine.series.CalendarFacts;
 import java.time.DayOfWeek;
 import java.time.LocalDate;
-import java.util.ArrayList;
 import java.util.LinkedHashMap;
-import java.util.List;
 import java.util.Map;
 
 /**
@@ -131,6 +129,12 @@ public final class CalendarRegression implements Candidate {
                 afterClosure++;
             }
         }
+        // the fit uses open days only: the same days and values for every number of harmonics
+        int[] openDays = java.util.stream.IntStream.range(0, n).filter(t -> open[t]).toArray();
+        double[] openValues = new double[openDays.length];
+        for (int i = 0; i < openDays.length; i++) {
+            openValues[i] = y[openDays[i]];
+        }
         double centre = (n - 1) / 2.0;
         LeastSquares.Fit best = null;
         Design bestDesign = null;
@@ -143,16 +147,11 @@ public final class CalendarRegression implements Candidate {
             if (design.columns() + 3 > n) {
                 break;
             }
-            List<double[]> rows = new ArrayList<>();
-            List<Double> values = new ArrayList<>();
-            for (int t = 0; t < n; t++) {
-                if (open[t]) {
-                    rows.add(row(t, design));
-                    values.add(y[t]);
-                }
+            double[][] rows = new double[openDays.length][];
+            for (int i = 0; i < openDays.length; i++) {
+                rows[i] = row(openDays[i], design);
             }
-            LeastSquares.Fit fit = LeastSquares.fit(rows.toArray(double[][]::new),
-                    values.stream().mapToDouble(Double::doubleValue).toArray(), 0);
+            LeastSquares.Fit fit = LeastSquares.fit(rows, openValues, 0);
             double aicc = Regression.aicc(fit);
             if (aicc < bestAicc || best == null) {
                 bestAicc = aicc;
@@ -197,7 +196,7 @@ public final class CalendarRegression implements Candidate {
             return null;
         }
         // white noise: −2 log L = n log(2π SS/n) + n, one parameter (σ²)
-        double bestAicc = n * Math.log(2 * Math.PI * ss / n) + n + 2 + 4.0 / Math.max(1, n - 2);
+        double bestAicc = Residuals.aicc(n * Math.log(2 * Math.PI * ss / n) + n, 1, n);
         SeasonalArima.Estimate best = null;
         for (int[] pq : ERROR_ORDERS) {
             SeasonalArima.Order o = new SeasonalArima.Order(pq[0], 0, pq[1], 0, 0, 0, 1, false, false);

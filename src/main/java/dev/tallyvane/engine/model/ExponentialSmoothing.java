@@ -215,7 +215,7 @@ public final class ExponentialSmoothing implements Candidate {
         int k = form.smoothingParameters() + form.initialStates(m) + 1;
         double minus2LogL = n * Math.log(pass.sse() / n) + n * (1 + Math.log(2 * Math.PI))
                 + (form.error() == EtsForm.Error.M ? 2 * pass.sumLogMu() : 0);
-        double aicc = minus2LogL + 2 * k + (n - k - 1 > 0 ? 2.0 * k * (k + 1) / (n - k - 1) : Double.POSITIVE_INFINITY);
+        double aicc = Residuals.aicc(minus2LogL, k, n);
         return new Estimate(form, p, initial, pass, aicc, k);
     }
 

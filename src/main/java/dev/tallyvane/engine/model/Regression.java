@@ -50,7 +50,6 @@ final class Regression {
     static double aicc(LeastSquares.Fit fit) {
         int n = fit.n();
         int k = fit.p() + 1;
-        return n * Math.log(fit.ssResidual() / n) + 2 * k + (n - k - 1 > 0 ? 2.0 * k * (k + 1) / (n - k - 1)
-                : Double.POSITIVE_INFINITY);
+        return Residuals.aicc(n * Math.log(fit.ssResidual() / n), k, n);
     }
 }

@@ -25,6 +25,14 @@ final class Residuals {
         return dof > 0 ? Math.sqrt(ss / dof) : Double.NaN;
     }
 
+    /**
+     * AICc = −2 log L + 2k + 2k(k + 1)/(n − k − 1) for k estimated parameters (σ² included) on n values
+     * (Hurvich &amp; Tsai, <i>Biometrika</i> 76 (1989); FPP3 §7.5); +∞ when n ≤ k + 1.
+     */
+    static double aicc(double minus2LogLikelihood, int k, int n) {
+        return n - k - 1 > 0 ? minus2LogLikelihood + 2 * k + 2.0 * k * (k + 1) / (n - k - 1) : Double.POSITIVE_INFINITY;
+    }
+
     static double[] nanArray(int n) {
         double[] a = new double[n];
         java.util.Arrays.fill(a, Double.NaN);

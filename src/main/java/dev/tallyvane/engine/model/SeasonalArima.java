@@ -388,7 +388,7 @@ public final class SeasonalArima implements Candidate {
         if (used - parameters - 1 <= 0) {
             return null;
         }
-        double aicc = m2ll + 2 * parameters + 2.0 * parameters * (parameters + 1) / (used - parameters - 1);
+        double aicc = Residuals.aicc(m2ll, parameters, used);
         return new Estimate(o, result.point(), coefficients(o, result.point(), wMean, wSpread), m2ll, aicc);
     }
 

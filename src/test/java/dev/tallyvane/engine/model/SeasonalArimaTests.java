@@ -69,7 +69,7 @@ class SeasonalArimaTests {
     @Test
     void automaticStepsChooseLogsAndBothDifferencesForSeriesG() {
         // common practice: the airline series needs logs (seasonal swings grow with the level), one
-        // seasonal and one ordinary difference (Box, Jenkins & Reinsel, Series G analysis, §9.2)
+        // seasonal and one ordinary difference (Box, Jenkins & Reinsel's Series G analysis; chapter from memory)
         SeasonalArima.Estimate e = SeasonalArima.search(passengers(), 12);
         assertThat(e.order().log()).isTrue();
         assertThat(e.order().sd()).isEqualTo(1);
@@ -83,7 +83,7 @@ class SeasonalArimaTests {
 
     @Test
     void psiWeightsOfARandomWalkGiveGrowingIntervals() {
-        // (1 - B) y = e: psi_j = 1, so sd_h = sigma sqrt(h) (Box, Jenkins & Reinsel §5.2; common practice)
+        // (1 - B) y = e: psi_j = 1, so sd_h = sigma sqrt(h) (Box, Jenkins & Reinsel on forecast variance, section from memory; common practice)
         double[] psi = ArmaStateSpace.psiWeights(ArmaStateSpace.differencing(1, 0, 1), new double[0], 5);
         assertThat(psi).containsExactly(1, 1, 1, 1, 1);
         // AR(1) phi = 0.5: psi_j = 0.5^j
@@ -103,7 +103,7 @@ class SeasonalArimaTests {
     @Test
     void exactLikelihoodOfAnAr1MatchesTheClosedForm() {
         // AR(1): -2 log L = N log(2 pi s2) + N + log(1/(1-phi^2)) with s2 = [(1-phi^2) w1^2 + sum (w_t - phi w_{t-1})^2]/N
-        // (Box, Jenkins & Reinsel §7.1.4, the exact likelihood of an AR(1); common practice)
+        // (the exact likelihood of an AR(1), as in Box, Jenkins & Reinsel, section from memory; common practice)
         double phi = 0.6;
         double[] w = {0.3, -0.2, 0.9, 1.4, 0.1, -0.7, -1.1, 0.4};
         double ss = (1 - phi * phi) * w[0] * w[0];
@@ -260,7 +260,7 @@ class SeasonalArimaTests {
 
     /**
      * The same with estimated coefficients (AR(1) with mean on 120 periods, 400 series × 6 steps): the
-     * plug-in intervals ignore the uncertainty of φ̂, μ̂ and σ̂ (FPP3 §9.5 makes the remark; the ML σ̂² is
+     * plug-in intervals ignore the uncertainty of φ̂, μ̂ and σ̂ (FPP3's ARIMA forecasting section makes the remark, section from memory; the ML σ̂² is
      * also biased low by about k/N), which costs about 4 points at 80% here (measured: 75.7% and 92.9%;
      * 76.5% and 92.9% on 1,000 series). The bar is set a little below the nominal band accordingly; with the
      * order chosen automatically as well the engine measured 75.0% / 91.8% on the same process.
