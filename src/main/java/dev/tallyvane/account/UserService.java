@@ -10,6 +10,8 @@ import java.util.List;
 import java.util.Locale;
 import java.util.regex.Pattern;
 import java.time.Instant;
+import org.springframework.dao.DuplicateKeyException;
+import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.security.authentication.DisabledException;
 import org.springframework.security.authentication.LockedException;
 import org.springframework.security.core.authority.SimpleGrantedAuthority;
@@ -37,12 +39,14 @@ public class UserService implements UserDetailsService {
     private final PasswordEncoder encoder;
     private final AuditLog audit;
     private final Clock clock;
+    private final JdbcTemplate jdbc;
 
-    UserService(AppUserRepository users, PasswordEncoder encoder, AuditLog audit, Clock clock) {
+    UserService(AppUserRepository users, PasswordEncoder encoder, AuditLog audit, Clock clock, JdbcTemplate jdbc) {
         this.users = users;
         this.encoder = encoder;
         this.audit = audit;
         this.clock = clock;
+        this.jdbc = jdbc;
     }
 
     /** The setup page is offered only while this is true. */
@@ -63,10 +67,21 @@ public class UserService implements UserDetailsService {
         }
     }
 
-    /** Creates the first owner; refused once any user exists. */
+    /**
+     * Creates the first owner; refused once any user exists. Exactly one of any number of
+     * concurrent setups succeeds: each first inserts the single row of {@code first_run_setup},
+     * whose primary key lets one transaction commit and refuses the others (they wait for it and
+     * then fail with a duplicate key). A setup whose details are refused rolls the row back.
+     */
     @Transactional
     public AppUser setUpOwner(NewUser details) {
         if (!needsSetup()) {
+            throw new SetupAlreadyDone();
+        }
+        try {
+            jdbc.update("insert into first_run_setup (id, done_at) values (1, ?)",
+                    java.sql.Timestamp.from(clock.instant()));
+        } catch (DuplicateKeyException raced) {
             throw new SetupAlreadyDone();
         }
         AppUser owner = create(new NewUser(details.username(), details.displayName(), details.email(), details.password(),

@@ -134,8 +134,12 @@ class IssuedForecastStore {
                 (rs, i) -> java.util.Map.entry(rs.getLong(1), rs.getString(2)), locationId, measure).stream().findFirst();
     }
 
-    long issuedSince(Instant since) {
-        return jdbc.queryForObject("select count(*) from issued_forecast where issued_at >= ?", Long.class,
-                Timestamp.from(since));
+    /** Forecasts issued since a moment, of one location (all when null). */
+    long issuedSince(Instant since, Long locationId) {
+        return locationId == null
+                ? jdbc.queryForObject("select count(*) from issued_forecast where issued_at >= ?", Long.class,
+                        Timestamp.from(since))
+                : jdbc.queryForObject("select count(*) from issued_forecast where issued_at >= ? and location_id = ?",
+                        Long.class, Timestamp.from(since), locationId);
     }
 }

@@ -172,13 +172,24 @@ public class RefitQueue {
     public record Status(long queued, long running, long doneLast24h, long failing) {
     }
 
+    /** Progress of the whole chain. */
     public Status status() {
-        Long queued = jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = ? and picked = false",
-                Long.class, REFIT);
-        Long running = jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = ? and picked = true",
-                Long.class, REFIT);
-        Long failing = jdbc.queryForObject("select count(*) from series_state where last_outcome like 'failed%'",
-                Long.class);
-        return new Status(queued, running, issued.issuedSince(clock.instant().minus(Duration.ofHours(24))), failing);
+        return status(null);
+    }
+
+    /** Progress of one location's series (all locations when null), for a token scoped to one location. */
+    public Status status(Long locationId) {
+        String task = locationId == null ? "" : " and task_instance like ?";
+        Object[] refit = locationId == null ? new Object[] {REFIT} : new Object[] {REFIT, locationId + ":%"};
+        Long queued = jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = ? and picked = false"
+                + task, Long.class, refit);
+        Long running = jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = ? and picked = true"
+                + task, Long.class, refit);
+        Long failing = locationId == null
+                ? jdbc.queryForObject("select count(*) from series_state where last_outcome like 'failed%'", Long.class)
+                : jdbc.queryForObject("select count(*) from series_state where last_outcome like 'failed%' and location_id = ?",
+                        Long.class, locationId);
+        return new Status(queued, running, issued.issuedSince(clock.instant().minus(Duration.ofHours(24)), locationId),
+                failing);
     }
 }

@@ -28,6 +28,29 @@ public class FigureRules {
     private final TallyvaneProperties properties;
     private final Clock clock;
 
+    /**
+     * Why a submitted text cannot be taken, or null when it can: control characters (U+0000–U+001F
+     * but tab, line feed and carriage return, and U+007F) are refused where the text is read, for
+     * every way figures arrive, so no query or stored row ever holds one (PostgreSQL refuses U+0000
+     * in text outright).
+     */
+    public static String unprintable(String text) {
+        for (int i = 0; i < text.length(); i++) {
+            char c = text.charAt(i);
+            if (c < 0x20 && c != '\t' && c != '\n' && c != '\r' || c == 0x7F) {
+                return String.format(java.util.Locale.ROOT, "holds a control character (U+%04X) at position %d; "
+                        + "remove it", (int) c, i + 1);
+            }
+        }
+        return null;
+    }
+
+    /** An amount as a message shows it: plain digits, or scientific notation where those would run long. */
+    static String shown(BigDecimal amount) {
+        String plain = amount.toPlainString();
+        return plain.length() <= 24 ? plain : amount.stripTrailingZeros().toString();
+    }
+
     FigureRules(TallyvaneProperties properties, Clock clock) {
         this.properties = properties;
         this.clock = clock;
@@ -84,9 +107,10 @@ public class FigureRules {
             BigDecimal amount = f.amount();
             int digits = location == null ? 2 : Math.max(0, location.currency().getDefaultFractionDigits());
             if (amount.abs().compareTo(LIMIT) >= 0) {
-                problems.add(new FieldProblem(i, "amount", "amount " + amount.toPlainString() + " is too large"));
+                problems.add(new FieldProblem(i, "amount", "amount " + shown(amount) + " is too large"));
             } else if (amount.stripTrailingZeros().scale() > digits) {
-                problems.add(new FieldProblem(i, "amount", "amount " + amount.toPlainString() + " has more than "
+                // also refuses a value that would round to zero (1e-400): a figure is never silently changed
+                problems.add(new FieldProblem(i, "amount", "amount " + shown(amount) + " has more than "
                         + digits + " decimal" + (digits == 1 ? "" : "s")
                         + (location == null ? "" : " (" + location.getCurrency() + ")")));
             }

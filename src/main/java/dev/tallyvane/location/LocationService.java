@@ -43,6 +43,25 @@ public class LocationService {
         return locations.findByCode(normaliseCode(code)).orElseThrow(() -> new UnknownLocation(code));
     }
 
+    /**
+     * The location a code names, as a client limited to one location (none when null) may see it.
+     * The scope is checked before the lookup, so such a client cannot tell which other codes exist:
+     * any code but its own is refused alike.
+     *
+     * @throws LocationOutOfScope for a code other than the scoped client's own location
+     */
+    @Transactional(readOnly = true)
+    public Location byCodeWithin(String code, Long onlyLocationId) {
+        if (onlyLocationId == null) {
+            return byCode(code);
+        }
+        Location own = byId(onlyLocationId);
+        if (!own.getCode().equals(normaliseCode(code))) {
+            throw new LocationOutOfScope();
+        }
+        return own;
+    }
+
     @Transactional(readOnly = true)
     public Location byId(long id) {
         return locations.findById(id).orElseThrow(() -> new UnknownLocation("#" + id));

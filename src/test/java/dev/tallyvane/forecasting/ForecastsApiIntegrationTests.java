@@ -1,6 +1,7 @@
 package dev.tallyvane.forecasting;
 
 import static org.awaitility.Awaitility.await;
+import static org.assertj.core.api.Assertions.assertThat;
 import static org.hamcrest.Matchers.containsString;
 import static org.hamcrest.Matchers.everyItem;
 import static org.hamcrest.Matchers.in;
@@ -117,6 +118,28 @@ class ForecastsApiIntegrationTests {
     }
 
     @Test
+    void aTokenOfOneLocationSeesOnlyItsOwnRefitCounts() throws Exception {
+        long other = locations.byCode(code + "O").getId();
+        java.sql.Timestamp later = java.sql.Timestamp.from(java.time.Instant.now().plus(Duration.ofDays(3650)));
+        String insert = "insert into scheduled_tasks (task_name, task_instance, execution_time, picked, version) "
+                + "values ('refit', ?, ?, false, 1)";
+        jdbc.update(insert, location.getId() + ":net_sales", later);
+        jdbc.update(insert, location.getId() + ":transactions", later);
+        jdbc.update(insert, other + ":net_sales", later);
+        try {
+            mvc.perform(as(get("/api/v1/refits"), scoped)).andExpect(status().isOk())
+                    .andExpect(jsonPath("$.queued").value(1));
+            mvc.perform(as(post("/api/v1/refits").param("location", code + "O"), scoped))
+                    .andExpect(status().isAccepted()).andExpect(jsonPath("$.status.queued").value(1));
+            mvc.perform(as(get("/api/v1/refits"), token)).andExpect(status().isOk())
+                    .andExpect(jsonPath("$.queued").value(org.hamcrest.Matchers.greaterThanOrEqualTo(3)));
+        } finally {
+            jdbc.update("delete from scheduled_tasks where task_name = 'refit' and task_instance in (?, ?, ?)",
+                    location.getId() + ":net_sales", location.getId() + ":transactions", other + ":net_sales");
+        }
+    }
+
+    @Test
     void flagsCanBeAcknowledgedAndSnoozedWithinTheTokensScope() throws Exception {
         jdbc.update("insert into drift_flag (location_id, measure, signal, signal_value, limit_value, since_period, "
                 + "raised_at, reason) values (?, 'net_sales', 'TRIGG', 0.7, 0.51, '2026-09-01', ?, 'Sales have run above "
@@ -128,8 +151,18 @@ class ForecastsApiIntegrationTests {
                         containsString("above forecast")));
         mvc.perform(as(get("/api/v1/flags"), scoped)).andExpect(status().isOk())
                 .andExpect(jsonPath("$[?(@.location == '" + code + "')]").doesNotExist());
-        mvc.perform(as(post("/api/v1/flags/{id}/acknowledge", id), scoped).contentType(MediaType.APPLICATION_JSON)
-                .content("{}")).andExpect(status().isForbidden());
+        // scope first: to a token of another location, this flag and a flag that does not exist look the same
+        String foreign = mvc.perform(as(post("/api/v1/flags/{id}/acknowledge", id), scoped)
+                        .contentType(MediaType.APPLICATION_JSON).content("{}")).andExpect(status().isNotFound())
+                .andReturn().getResponse().getContentAsString();
+        String absent = mvc.perform(as(post("/api/v1/flags/{id}/acknowledge", id + 1_000_000), scoped)
+                        .contentType(MediaType.APPLICATION_JSON).content("{}")).andExpect(status().isNotFound())
+                .andReturn().getResponse().getContentAsString();
+        assertThat(foreign.replace("flags/" + id + "/", "flags/N/").replace("#" + id + ".", "#N."))
+                .isEqualTo(absent.replace("flags/" + (id + 1_000_000) + "/", "flags/N/")
+                        .replace("#" + (id + 1_000_000) + ".", "#N."));
+        assertThat(jdbc.queryForObject("select acknowledged_at from drift_flag where id = ?", java.sql.Timestamp.class, id))
+                .isNull();
         mvc.perform(as(post("/api/v1/flags/{id}/acknowledge", id), token).contentType(MediaType.APPLICATION_JSON)
                         .content("{\"note\":\"roadworks on Mill Street until October\",\"snoozeDays\":14}"))
                 .andExpect(status().isOk()).andExpect(jsonPath("$.acknowledgedBy").value("token:all"))

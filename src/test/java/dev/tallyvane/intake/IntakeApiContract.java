@@ -246,6 +246,36 @@ abstract class IntakeApiContract {
         assertThat(rowsOf(code)).isZero();
     }
 
+    /**
+     * The amounts policy (README, "Amounts"): a negative day (refunds above sales) is a real figure and
+     * is kept; a value with more decimals than the currency has is refused, also when it would round
+     * to zero, so nothing is ever stored other than as sent; a control character in a text field is
+     * refused with its item and field (PostgreSQL refuses U+0000 outright).
+     */
+    @Test
+    void negativeDaysAreKeptTinyAmountsAndControlCharactersAreRefused() throws Exception {
+        mvc.perform(postFigures("{\"figures\":[{\"location\":\"" + code + "\",\"period\":\"2026-11-02\","
+                + "\"amount\":-12.50}]}")).andExpect(status().isOk()).andExpect(jsonPath("$.created").value(1));
+        assertThat(jdbc.queryForObject("select r.amount from figure_revision r join location l on l.id = r.location_id "
+                + "where l.code = ?", java.math.BigDecimal.class, code)).isEqualByComparingTo("-12.50");
+        mvc.perform(postFigures("{\"figures\":[{\"location\":\"" + code + "\",\"period\":\"2026-11-03\","
+                        + "\"amount\":1e-400},{\"location\":\"" + code + "\",\"period\":\"2026-11-04\",\"amount\":1e400}]}"))
+                .andExpect(status().isUnprocessableContent())
+                .andExpect(jsonPath("$.errors[?(@.index == 0 && @.field == 'amount')].reason")
+                        .value("amount 1E-400 has more than 2 decimals (EUR)"))
+                .andExpect(jsonPath("$.errors[?(@.index == 1 && @.field == 'amount')].reason")
+                        .value("amount 1E+400 is too large"));
+        mvc.perform(postFigures("{\"figures\":[{\"location\":\"" + code + "\\u0000\",\"period\":\"2026-11-05\","
+                        + "\"amount\":1},{\"location\":\"" + code + "\",\"measure\":\"net\\u0000sales\","
+                        + "\"period\":\"2026-11-06\",\"amount\":1}]}"))
+                .andExpect(status().isUnprocessableContent())
+                .andExpect(jsonPath("$.errors[?(@.index == 0 && @.field == 'location')].reason")
+                        .value("location holds a control character (U+0000) at position " + (code.length() + 1)
+                                + "; remove it"))
+                .andExpect(jsonPath("$.errors[?(@.index == 1 && @.field == 'measure')]").exists());
+        assertThat(rowsOf(code)).isEqualTo(1);
+    }
+
     @Test
     void malformedJsonNonFiniteNumbersAndEmptyBodiesGetClearProblems() throws Exception {
         mvc.perform(postFigures("{\"figures\":[{\"location\":\"X\",")).andExpect(status().isBadRequest())
@@ -284,11 +314,24 @@ abstract class IntakeApiContract {
         Location other = locations.create(new LocationDetails(code + "B", "Mill Street", "Europe/Berlin", "EUR", null,
                 null));
         String scoped = tokens.create("till B", other.getId(), "test").secret();
+        // writing another location is refused as out of scope (403), before any check of the figures
         mvc.perform(post("/api/v1/figures").header("Authorization", "Bearer " + scoped)
                         .contentType(MediaType.APPLICATION_JSON).content(body))
-                .andExpect(status().isUnprocessableContent())
-                .andExpect(jsonPath("$.errors[0].reason").value("this API token may not write location '" + code + "'"));
+                .andExpect(status().isForbidden())
+                .andExpect(jsonPath("$.type").value("/problems/location-out-of-scope"))
+                .andExpect(jsonPath("$.detail").value(org.hamcrest.Matchers.containsString("item 0 name")));
+        // and a location that does not exist gets the same answer: the token cannot tell which codes exist
+        mvc.perform(post("/api/v1/figures").header("Authorization", "Bearer " + scoped)
+                        .contentType(MediaType.APPLICATION_JSON).content(dailyFigures("NOSUCH" + code,
+                                LocalDate.of(2026, 11, 1), 1, 50)))
+                .andExpect(status().isForbidden())
+                .andExpect(jsonPath("$.type").value("/problems/location-out-of-scope"));
+        assertThat(rowsOf(code)).isZero();
         mvc.perform(get("/api/v1/locations/{c}/series", code).header("Authorization", "Bearer " + scoped))
+                .andExpect(status().isForbidden());
+        mvc.perform(get("/api/v1/locations/{c}/series", "NOSUCH" + code).header("Authorization", "Bearer " + scoped))
+                .andExpect(status().isForbidden());
+        mvc.perform(get("/api/v1/locations/{c}", "NOSUCH" + code).header("Authorization", "Bearer " + scoped))
                 .andExpect(status().isForbidden());
         mvc.perform(get("/api/v1/locations").header("Authorization", "Bearer " + scoped))
                 .andExpect(jsonPath("$.length()").value(1)).andExpect(jsonPath("$[0].code").value(code + "B"));

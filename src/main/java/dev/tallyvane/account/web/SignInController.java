@@ -59,6 +59,8 @@ class SignInController {
             model.addAttribute("problems", e.problems());
             model.addAttribute("form", form);
             return "account/setup";
+        } catch (UserService.SetupAlreadyDone raced) {
+            return "redirect:/login"; // another setup committed first
         }
         return "redirect:/login?setupDone";
     }

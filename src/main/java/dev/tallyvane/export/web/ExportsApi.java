@@ -45,13 +45,8 @@ class ExportsApi {
             @RequestParam(required = false) LocalDate from, @RequestParam(required = false) LocalDate to,
             @RequestHeader(name = HttpHeaders.ACCEPT, required = false) String accept,
             @AuthenticationPrincipal ApiClient client) {
-        Location l = location == null ? null : locations.byCode(location);
-        if (!client.allLocations()) {
-            if (l != null && !client.locationId().equals(l.getId())) {
-                throw new AccessDeniedException("This token may only export its own location.");
-            }
-            l = locations.byId(client.locationId());
-        }
+        Location l = location != null ? locations.byCodeWithin(location, client.locationId())
+                : client.allLocations() ? null : locations.byId(client.locationId());
         return downloads.download(dataset, format, accept, separator, l, measure, from, to);
     }
 }

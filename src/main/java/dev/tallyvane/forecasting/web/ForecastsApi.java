@@ -82,11 +82,7 @@ class ForecastsApi {
     }
 
     private Location visible(String code, ApiClient client) {
-        Location l = locations.byCode(code);
-        if (!client.allLocations() && !client.locationId().equals(l.getId())) {
-            throw new AccessDeniedException("This token may only use its own location.");
-        }
-        return l;
+        return locations.byCodeWithin(code, client.locationId());
     }
 
     private static void requireAll(ApiClient client) {
@@ -156,10 +152,9 @@ class ForecastsApi {
     @PostMapping("/flags/{id}/acknowledge")
     DriftFlag acknowledge(@PathVariable long id, @RequestBody(required = false) Acknowledgement body,
             @AuthenticationPrincipal ApiClient client) {
-        DriftFlag flag = accuracy.flag(id).orElseThrow(() -> new UnknownFlag(id));
-        if (!client.allLocations() && !client.locationId().equals(flag.locationId())) {
-            throw new AccessDeniedException("This token may only use its own location.");
-        }
+        // scope first: to a token of one location, another location's flag and no flag look the same
+        accuracy.flag(id).filter(f -> client.allLocations() || client.locationId().equals(f.locationId()))
+                .orElseThrow(() -> new UnknownFlag(id));
         accuracy.acknowledge(id, client.actor(), body == null ? null : body.note(), body == null ? null : body.snoozeDays());
         return accuracy.flag(id).orElseThrow();
     }
@@ -175,13 +170,18 @@ class ForecastsApi {
             id = visible(location, client).getId();
         }
         int queued = queue.refitNow(id);
-        return ResponseEntity.status(HttpStatus.ACCEPTED).body(Map.of("queued", queued, "status", queue.status()));
+        return ResponseEntity.status(HttpStatus.ACCEPTED).body(Map.of("queued", queued, "status", statusFor(client)));
     }
 
-    @Operation(summary = "Re-fit progress: queued, running, issued in the last 24 hours, failing")
+    @Operation(summary = "Re-fit progress: queued, running, issued in the last 24 hours, failing (a token of one "
+            + "location sees its own location's counts)")
     @GetMapping("/refits")
-    RefitQueue.Status refitStatus() {
-        return queue.status();
+    RefitQueue.Status refitStatus(@AuthenticationPrincipal ApiClient client) {
+        return statusFor(client);
+    }
+
+    private RefitQueue.Status statusFor(ApiClient client) {
+        return queue.status(client.allLocations() ? null : client.locationId());
     }
 
     /** A location's calendar: closed days (forecast as 0, never scored) and holidays. */

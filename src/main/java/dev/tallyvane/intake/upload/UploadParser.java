@@ -131,6 +131,18 @@ final class UploadParser {
             if (row.cells().containsKey("#extra")) {
                 problems.add(new FieldProblem(n, "row", "more cells than the header has columns"));
             }
+            boolean unprintableCell = false;
+            for (Map.Entry<String, RawValue> cell : row.cells().entrySet()) {
+                String unprintable = cell.getValue() instanceof RawValue.Text t ? FigureRules.unprintable(t.value()) : null;
+                if (unprintable != null) {
+                    problems.add(new FieldProblem(n, cell.getKey().equals("date") ? "period" : cell.getKey(),
+                            "the cell " + unprintable));
+                    unprintableCell = true;
+                }
+            }
+            if (unprintableCell) {
+                continue;
+            }
             String location = text(row, "location", n, problems);
             String measure = row.cells().containsKey("measure") ? text(row, "measure", n, problems)
                     : FigureRules.DEFAULT_MEASURE;

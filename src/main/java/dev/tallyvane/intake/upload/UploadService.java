@@ -29,6 +29,9 @@ import org.springframework.transaction.annotation.Transactional;
 @Service
 public class UploadService {
 
+    /** Control characters never reach the database: a file name or type is stored without them. */
+    private static final java.util.regex.Pattern CONTROL = java.util.regex.Pattern.compile("[\\p{Cntrl}]");
+
     private final UploadStore store;
     private final IntakeService intake;
     private final LocationService locations;
@@ -75,9 +78,16 @@ public class UploadService {
      */
     @Transactional
     public long stage(String fileName, String contentType, byte[] content, String user) {
-        String name = fileName == null || fileName.isBlank() ? "upload" : fileName.strip();
+        String name = fileName == null ? "" : CONTROL.matcher(fileName).replaceAll("").strip();
+        if (name.isEmpty()) {
+            name = "upload";
+        }
         if (name.length() > 255) {
             name = name.substring(0, 255);
+        }
+        contentType = contentType == null ? null : CONTROL.matcher(contentType).replaceAll("");
+        if (contentType != null && contentType.length() > 100) {
+            contentType = contentType.substring(0, 100);
         }
         if (content.length == 0) {
             throw new UploadRejected("The file is empty.");

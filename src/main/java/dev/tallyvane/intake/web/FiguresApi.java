@@ -128,6 +128,19 @@ class FiguresApi {
             return problem(HttpStatus.BAD_REQUEST, "malformed-body", "The request body is not valid JSON",
                     e.getMessage());
         }
+        if (!client.allLocations()) {
+            // scope first: a token of one location writing another is refused as such, whether that
+            // location exists or not, before any other check
+            String own = locations.byId(client.locationId()).getCode();
+            List<Integer> foreign = parsed.figures().stream().filter(f -> !f.locationCode().equals(own))
+                    .map(dev.tallyvane.intake.FigureInput::index).toList();
+            if (!foreign.isEmpty()) {
+                return problem(HttpStatus.FORBIDDEN, "location-out-of-scope", "Not allowed", "This token may only write "
+                        + "location " + own + "; " + (foreign.size() == 1 ? "item " : "items ") + foreign.stream()
+                        .limit(20).map(String::valueOf).collect(java.util.stream.Collectors.joining(", "))
+                        + (foreign.size() > 20 ? " …" : "") + " name another. Nothing was saved.");
+            }
+        }
         if (!parsed.problems().isEmpty()) {
             List<InvalidRequest.FieldProblem> all = new ArrayList<>(parsed.problems());
             all.addAll(intake.check(parsed.figures(), java.util.Set.of(), "item"));
@@ -170,10 +183,7 @@ class FiguresApi {
             @Parameter(description = "ISO-8601 instant, e.g. 2026-11-01T00:00:00Z")
             @RequestParam(required = false) String asOf,
             @RequestParam(required = false) LocalDate from, @RequestParam(required = false) LocalDate to) {
-        Location location = locations.byCode(code);
-        if (!client.allLocations() && !client.locationId().equals(location.getId())) {
-            throw new AccessDeniedException("This token may only read its own location.");
-        }
+        Location location = locations.byCodeWithin(code, client.locationId());
         Granularity g;
         try {
             g = Granularity.of(granularity);

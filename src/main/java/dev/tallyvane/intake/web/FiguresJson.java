@@ -128,7 +128,12 @@ final class FiguresJson {
             problems.add(new FieldProblem(i, field, field + " must be a string"));
             return null;
         }
+        String unprintable = FigureRules.unprintable(n.asString()); // before trim(), which drops U+0000 too
         String s = n.asString().trim();
+        if (unprintable != null) {
+            problems.add(new FieldProblem(i, field, field + " " + unprintable));
+            return null;
+        }
         if (s.isEmpty()) {
             problems.add(new FieldProblem(i, field, field + " is empty"));
             return null;

@@ -42,7 +42,14 @@ class UploadsController {
     }
 
     @PostMapping("/uploads")
-    String upload(@RequestParam("file") MultipartFile file, Principal user, Model model) throws IOException {
+    String upload(@RequestParam(name = "file", required = false) MultipartFile file, Principal user, Model model,
+            jakarta.servlet.http.HttpServletResponse response) throws IOException {
+        if (file == null) {
+            // a plain form post, or a multipart one without the file field: nothing to read
+            response.setStatus(400);
+            model.addAttribute("error", "No file was sent. Choose a CSV or Excel file and press Upload.");
+            return page(model);
+        }
         try {
             long id = uploads.stage(file.getOriginalFilename(), file.getContentType(), file.getBytes(), user.getName());
             return "redirect:/uploads/" + id;

@@ -73,6 +73,30 @@ abstract class UploadFlowContract {
         return Long.parseLong(location.substring("/uploads/".length()));
     }
 
+    /** A NUL byte in a cell (or the file name) is refused at parse time, naming the row and field, never a 500. */
+    @Test
+    void aControlCharacterInACellIsNamedWithItsRowAndFieldOnThePreview() throws Exception {
+        String csv = "location,period,amount,measure\n" + code + ",2026-11-01,100.00,net_sales\n" + code
+                + "\u0000,2026-11-02,90,net_sales\n" + code + ",2026-11-03,80,net\u0000sales\n";
+        long id = upload("nul\u0000.csv", csv.getBytes(StandardCharsets.UTF_8));
+        mvc.perform(get("/uploads/{id}", id).with(bookkeeper)).andExpect(status().isOk())
+                .andExpect(content().string(containsString("control character (U+0000)")))
+                .andExpect(content().string(containsString("nul.csv")));
+        String page = mvc.perform(post("/uploads/{id}/commit", id).with(bookkeeper).with(csrf()))
+                .andExpect(status().isOk()).andReturn().getResponse().getContentAsString(StandardCharsets.UTF_8);
+        assertThat(page).contains("control character (U+0000)");
+        assertThat(rows(code)).isZero();
+    }
+
+    @Test
+    void aFormPostWithoutAFileIsABadRequestWithAPlainMessage() throws Exception {
+        mvc.perform(post("/uploads").with(bookkeeper).with(csrf()).contentType("application/x-www-form-urlencoded")
+                        .content("note=hello")).andExpect(status().isBadRequest())
+                .andExpect(content().string(containsString("No file was sent")));
+        mvc.perform(multipart("/uploads").param("note", "no file part").with(bookkeeper).with(csrf()))
+                .andExpect(status().isBadRequest()).andExpect(content().string(containsString("No file was sent")));
+    }
+
     @Test
     void csvUploadPreviewCommitAndHistoryWithANewLocationConfirmed() throws Exception {
         String fresh = code + "X";
