@@ -91,6 +91,18 @@ public final class Browser implements AutoCloseable {
                 .until(ExpectedConditions.visibilityOfElementLocated(By.cssSelector(css)));
     }
 
+    /**
+     * Clicks what leads to another page and waits until the old page is gone, so nothing read next
+     * belongs to the page being left (a stale element otherwise, when the new page arrives late).
+     */
+    public void clickToLoad(String css) {
+        WebElement html = driver.findElement(By.tagName("html"));
+        find(css).click();
+        new WebDriverWait(driver, Duration.ofSeconds(20)).until(ExpectedConditions.stalenessOf(html));
+        new WebDriverWait(driver, Duration.ofSeconds(20)).until(d -> "complete".equals(
+                ((org.openqa.selenium.JavascriptExecutor) d).executeScript("return document.readyState")));
+    }
+
     public String text() {
         return driver.findElement(By.tagName("body")).getText();
     }

@@ -73,7 +73,7 @@ class DemoDashboardBrowserTests {
 
         // the location whose sales dropped is found by the drift filter, with the reason on focus
         browser.find("#show option[value=flagged]").click();
-        browser.find("form.filters button[type=submit]").click();
+        browser.clickToLoad("form.filters button[type=submit]");
         assertThat(codes()).contains("CANALSIDE").hasSizeLessThan(8);
         WebElement canalside = rows().stream().filter(r -> r.getText().startsWith("CANALSIDE")).findFirst().orElseThrow();
         WebElement flag = canalside.findElement(org.openqa.selenium.By.cssSelector(".flag"));
@@ -86,15 +86,15 @@ class DemoDashboardBrowserTests {
 
         // sorting by the last period's error, largest first, then by code descending
         browser.go("/");
-        browser.find("#overview th a[href*='sort=error']").click();
-        browser.find("#overview th a[href*='sort=error']").click();
+        browser.clickToLoad("#overview th a[href*='sort=error']");
+        browser.clickToLoad("#overview th a[href*='sort=error']");
         assertThat(browser.find("#overview th[aria-sort]").getAttribute("aria-sort")).isEqualTo("descending");
         List<Double> errors = browser.all("#overview tbody tr td:nth-child(3) .badge").stream()
                 .map(e -> Math.abs(Double.parseDouble(e.getText().replace("%", "").replace("+", "").replace(",", ""))))
                 .toList();
         assertThat(errors).isSortedAccordingTo((a, b) -> Double.compare(b, a));
-        browser.find("#overview th a[href*='sort=code']").click();
-        browser.find("#overview th a[href*='sort=code']").click();
+        browser.clickToLoad("#overview th a[href*='sort=code']");
+        browser.clickToLoad("#overview th a[href*='sort=code']");
         assertThat(codes()).isSortedAccordingTo((a, b) -> b.compareTo(a));
 
         // a location page with three years of history: both charts drawn
