@@ -1,5 +1,6 @@
 package dev.tallyvane.account;
 
+import dev.tallyvane.system.ApiClient;
 import org.springframework.context.event.EventListener;
 import org.springframework.security.authentication.event.AbstractAuthenticationFailureEvent;
 import org.springframework.security.authentication.event.AuthenticationSuccessEvent;

@@ -1,5 +1,6 @@
 package dev.tallyvane.account;
 
+import dev.tallyvane.system.ApiClient;
 import jakarta.servlet.FilterChain;
 import jakarta.servlet.ServletException;
 import jakarta.servlet.http.HttpServletRequest;

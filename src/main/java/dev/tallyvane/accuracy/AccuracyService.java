@@ -4,8 +4,12 @@ import dev.tallyvane.accuracy.signal.DriftSignals;
 import dev.tallyvane.accuracy.signal.Reading;
 import dev.tallyvane.accuracy.signal.Signal;
 import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.forecasting.ForecastIssued;
+import dev.tallyvane.forecasting.IssuedForecasts;
+import dev.tallyvane.intake.FiguresRecorded;
 import dev.tallyvane.intake.SeriesReader;
 import dev.tallyvane.location.Location;
+import dev.tallyvane.location.LocationService;
 import java.sql.Timestamp;
 import java.time.Clock;
 import java.time.Instant;
@@ -17,11 +21,13 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
 import org.springframework.jdbc.core.JdbcTemplate;
+import org.springframework.modulith.events.ApplicationModuleListener;
 import org.springframework.stereotype.Service;
 import org.springframework.transaction.annotation.Transactional;
 
 /**
- * Realized accuracy: scores every issued forecast point whose period is over against the actual,
+ * Realized accuracy: listening for new figures and new forecasts (module events), scores every
+ * issued forecast point whose period is over against the actual,
  * keeps each score (a corrected actual adds a new score and marks the old one not current), and
  * watches the one-step-ahead errors for drift ({@link DriftSignals}), raising and clearing flags.
  */
@@ -30,12 +36,17 @@ public class AccuracyService {
 
     private final JdbcTemplate jdbc;
     private final SeriesReader reader;
+    private final IssuedForecasts issued;
+    private final LocationService locations;
     private final FlagStore flags;
     private final Clock clock;
 
-    AccuracyService(JdbcTemplate jdbc, SeriesReader reader, FlagStore flags, Clock clock) {
+    AccuracyService(JdbcTemplate jdbc, SeriesReader reader, IssuedForecasts issued, LocationService locations,
+            FlagStore flags, Clock clock) {
         this.jdbc = jdbc;
         this.reader = reader;
+        this.issued = issued;
+        this.locations = locations;
         this.flags = flags;
         this.clock = clock;
     }
@@ -43,16 +54,42 @@ public class AccuracyService {
     private record PointKey(long issuedId, int step) {
     }
 
-    /** Scores new actuals and re-evaluates the drift flags of a location's measure; returns the number of new scores. */
+    /** New figures: score the forecasts of their periods (a module event, delivered after the intake committed). */
+    @ApplicationModuleListener
+    void figuresRecorded(FiguresRecorded event) {
+        for (FiguresRecorded.SeriesRef ref : event.series()) {
+            scoreAndWatch(ref.locationId(), ref.measure());
+        }
+    }
+
+    /** A new forecast: the drift watch compares the errors with what its backtest promised. */
+    @ApplicationModuleListener
+    void forecastIssued(ForecastIssued event) {
+        scoreAndWatch(event.locationId(), event.measure());
+    }
+
+    /**
+     * Scores new actuals and re-evaluates the drift flags of a location's measure; returns the number
+     * of new scores. Idempotent (an actual already scored is not scored again), and one at a time per
+     * series: the series' row in {@code accuracy_series} is locked first, across instances.
+     */
     @Transactional
-    public int scoreAndWatch(Location location, String measure) {
+    public int scoreAndWatch(long locationId, String measure) {
+        lockSeries(locationId, measure);
+        Location location = locations.byId(locationId);
         int scored = 0;
-        for (String g : jdbc.queryForList("select distinct granularity from issued_forecast where location_id = ? and "
-                + "measure = ?", String.class, location.getId(), measure)) {
+        for (String g : issued.granularities(locationId, measure)) {
             scored += score(location, measure, Granularity.valueOf(g));
         }
         watch(location, measure);
         return scored;
+    }
+
+    private void lockSeries(long locationId, String measure) {
+        jdbc.update("insert into accuracy_series (location_id, measure) select ?, ? where not exists (select 1 from "
+                + "accuracy_series where location_id = ? and measure = ?)", locationId, measure, locationId, measure);
+        jdbc.queryForList("select location_id from accuracy_series where location_id = ? and measure = ? for update",
+                Long.class, locationId, measure);
     }
 
     private int score(Location location, String measure, Granularity granularity) {
@@ -75,28 +112,23 @@ public class AccuracyService {
         Instant now = clock.instant();
         List<Object[]> inserts = new ArrayList<>();
         List<Long> superseded = new ArrayList<>();
-        jdbc.query("select p.issued_id, p.step, p.period_start, p.forecast, p.lo80, p.hi80, p.lo95, p.hi95, p.benchmark, "
-                + "f.mase_scale from issued_forecast_point p join issued_forecast f on f.id = p.issued_id "
-                + "where f.location_id = ? and f.measure = ? and f.granularity = ? and p.closed = false and "
-                + "p.period_start <= ?", rs -> {
-                    LocalDate period = rs.getObject(3, LocalDate.class);
-                    Double actual = actuals.get(period);
-                    if (actual == null) {
-                        return;
-                    }
-                    PointKey key = new PointKey(rs.getLong(1), rs.getInt(2));
-                    Double before = current.get(key);
-                    if (before != null && before.doubleValue() == actual) {
-                        return;
-                    }
-                    if (before != null) {
-                        superseded.add(currentIds.get(key));
-                    }
-                    double forecast = rs.getDouble(4);
-                    inserts.add(new Object[] {key.issuedId(), location.getId(), measure, granularity.name(), key.step(),
-                            period, forecast, actual, rs.getObject(9), actual >= rs.getDouble(5) && actual <= rs.getDouble(6),
-                            actual >= rs.getDouble(7) && actual <= rs.getDouble(8), rs.getObject(10), Timestamp.from(now)});
-                }, location.getId(), measure, granularity.name(), last);
+        for (IssuedForecasts.IssuedPoint p : issued.openPointsThrough(location.getId(), measure, granularity.name(), last)) {
+            Double actual = actuals.get(p.period());
+            if (actual == null) {
+                continue;
+            }
+            PointKey key = new PointKey(p.issuedId(), p.step());
+            Double before = current.get(key);
+            if (before != null && before.doubleValue() == actual) {
+                continue;
+            }
+            if (before != null) {
+                superseded.add(currentIds.get(key));
+            }
+            inserts.add(new Object[] {key.issuedId(), location.getId(), measure, granularity.name(), key.step(),
+                    p.period(), p.forecast(), actual, p.benchmark(), actual >= p.lo80() && actual <= p.hi80(),
+                    actual >= p.lo95() && actual <= p.hi95(), p.maseScale(), Timestamp.from(now)});
+        }
         for (Long id : superseded) {
             jdbc.update("update forecast_error set is_current = false where id = ?", id);
         }
@@ -115,26 +147,28 @@ public class AccuracyService {
     public List<StepOne> stepOneErrors(long locationId, String measure) {
         Map<LocalDate, StepOne> byPeriod = new TreeMap<>();
         Map<LocalDate, Long> issuedOf = new HashMap<>();
-        String granularity = jdbc.query("select granularity from issued_forecast where location_id = ? and measure = ? "
-                + "order by issued_at desc, id desc fetch first 1 rows only", (rs, i) -> rs.getString(1), locationId,
-                measure).stream().findFirst().orElse(null);
+        String granularity = issued.latest(locationId, measure).map(IssuedForecasts.Latest::granularity).orElse(null);
         if (granularity == null) {
             return List.of();
         }
-        jdbc.query("select e.period_start, e.actual, e.forecast, p.lo95, p.hi95, e.mase_scale, e.issued_id "
-                + "from forecast_error e join issued_forecast_point p on p.issued_id = e.issued_id and p.step = e.step "
+        Map<Long, IssuedForecasts.IssuedPoint> stepOne = new HashMap<>();
+        for (IssuedForecasts.IssuedPoint p : issued.pointsAtStep(locationId, measure, 1)) {
+            stepOne.put(p.issuedId(), p);
+        }
+        jdbc.query("select e.period_start, e.actual, e.forecast, e.mase_scale, e.issued_id from forecast_error e "
                 + "where e.location_id = ? and e.measure = ? and e.granularity = ? and e.step = 1 and e.is_current = true",
                 rs -> {
                     LocalDate period = rs.getObject(1, LocalDate.class);
-                    long issued = rs.getLong(7);
-                    if (issuedOf.containsKey(period) && issuedOf.get(period) > issued) {
+                    long issuedId = rs.getLong(5);
+                    IssuedForecasts.IssuedPoint point = stepOne.get(issuedId);
+                    if (point == null || issuedOf.containsKey(period) && issuedOf.get(period) > issuedId) {
                         return;
                     }
-                    issuedOf.put(period, issued);
+                    issuedOf.put(period, issuedId);
                     double actual = rs.getDouble(2);
                     double forecast = rs.getDouble(3);
-                    double sigma = (rs.getDouble(5) - rs.getDouble(4)) / (2 * 1.959963984540054);
-                    Double scale = (Double) rs.getObject(6, Double.class);
+                    double sigma = (point.hi95() - point.lo95()) / (2 * 1.959963984540054);
+                    Double scale = rs.getObject(4, Double.class);
                     byPeriod.put(period, new StepOne(period, actual, forecast, actual - forecast, sigma,
                             scale == null ? Double.NaN : scale, granularity));
                 }, locationId, measure, granularity);
@@ -147,10 +181,7 @@ public class AccuracyService {
             return;
         }
         glance(location.getId(), measure, errors);
-        List<Double> promisedList = jdbc.query("select promised_mase from issued_forecast where location_id = ? and "
-                + "measure = ? order by issued_at desc, id desc fetch first 1 rows only", (rs, i) -> (Double) rs.getObject(1,
-                Double.class), location.getId(), measure);
-        Double promised = promisedList.isEmpty() ? null : promisedList.get(0);
+        Double promised = issued.latest(location.getId(), measure).map(IssuedForecasts.Latest::promisedMase).orElse(null);
         List<DriftSignals.Observation> obs = errors.stream()
                 .map(e -> new DriftSignals.Observation(e.error(), e.sigma(), e.maseScale())).toList();
         Instant now = clock.instant();
@@ -338,6 +369,42 @@ public class AccuracyService {
     @Transactional(readOnly = true)
     public List<DriftFlag> flags(Long locationId, boolean openOnly) {
         return flags.list(locationId, openOnly, 500);
+    }
+
+    /** An issued forecast's point: the forecast's id and the step. */
+    public record PointRef(long issuedId, int step) {
+    }
+
+    /** A point's current score: the actual (as now known) and whether it fell within the 80% and 95% intervals. */
+    public record Scored(double actual, boolean in80, boolean in95) {
+    }
+
+    /** The current scores of every forecast point of a location. */
+    @Transactional(readOnly = true)
+    public Map<PointRef, Scored> currentScores(long locationId) {
+        Map<PointRef, Scored> out = new HashMap<>();
+        jdbc.query("select issued_id, step, actual, in80, in95 from forecast_error where location_id = ? and "
+                + "is_current = true", rs -> {
+                    out.put(new PointRef(rs.getLong(1), rs.getInt(2)), new Scored(rs.getDouble(3), rs.getBoolean(4),
+                            rs.getBoolean(5)));
+                }, locationId);
+        return out;
+    }
+
+    /** Numbers that change whenever a flag is raised, cleared or acknowledged. */
+    @Transactional(readOnly = true)
+    public List<Long> flagsVersion() {
+        return flags.version();
+    }
+
+    /** The reasons of a series' open flags that are not snoozed now, oldest first (what the weekly e-mail lists). */
+    @Transactional(readOnly = true)
+    public List<String> attention(long locationId, String measure) {
+        Instant now = clock.instant();
+        List<DriftFlag> open = new ArrayList<>(flags.list(locationId, true, 500));
+        java.util.Collections.reverse(open);
+        return open.stream().filter(f -> f.measure().equals(measure)
+                && (f.snoozedUntil() == null || f.snoozedUntil().isBefore(now))).map(DriftFlag::reason).toList();
     }
 
     @Transactional(readOnly = true)

@@ -16,4 +16,14 @@ public record DriftFlag(long id, long locationId, String location, String measur
     public boolean open() {
         return clearedAt == null;
     }
+
+    /** A short label in plain words, for a chip beside the location (the reason says the rest). */
+    public String label() {
+        String side = value >= 0 ? "above" : "below";
+        return switch (signal) {
+            case TRIGG, CUMULATIVE -> "sales keep running " + side + " forecast";
+            case CUSUM -> "sales have shifted " + side + " forecast";
+            case ERROR_RATIO -> "forecasts less accurate than expected";
+        };
+    }
 }

@@ -1,10 +1,12 @@
 package dev.tallyvane.accuracy;
 
 import dev.tallyvane.accuracy.signal.Signal;
+import dev.tallyvane.location.LocationService;
 import java.sql.Timestamp;
 import java.time.Instant;
 import java.time.LocalDate;
 import java.util.List;
+import java.util.Map;
 import java.util.Optional;
 import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.jdbc.core.RowMapper;
@@ -14,27 +16,33 @@ import org.springframework.stereotype.Repository;
 @Repository
 class FlagStore {
 
-    private static final String COLUMNS = "f.id, f.location_id, l.code, f.measure, f.signal, f.signal_value, f.limit_value, "
+    private static final String COLUMNS = "f.id, f.location_id, f.measure, f.signal, f.signal_value, f.limit_value, "
             + "f.since_period, f.raised_at, f.cleared_at, f.reason, f.acknowledged_at, f.acknowledged_by, f.snoozed_until, f.note";
 
     private final JdbcTemplate jdbc;
+    private final LocationService locations;
 
-    FlagStore(JdbcTemplate jdbc) {
+    FlagStore(JdbcTemplate jdbc, LocationService locations) {
         this.jdbc = jdbc;
+        this.locations = locations;
     }
 
-    private static final RowMapper<DriftFlag> MAPPER = (rs, i) -> new DriftFlag(rs.getLong(1), rs.getLong(2),
-            rs.getString(3), rs.getString(4), Signal.valueOf(rs.getString(5)), rs.getDouble(6), rs.getDouble(7),
-            rs.getObject(8, LocalDate.class), instant(rs.getTimestamp(9)), instant(rs.getTimestamp(10)), rs.getString(11),
-            instant(rs.getTimestamp(12)), rs.getString(13), instant(rs.getTimestamp(14)), rs.getString(15));
+    /** Rows to flags, the location codes from the location module (read once per query). */
+    private RowMapper<DriftFlag> mapper() {
+        Map<Long, String> codes = locations.codesById();
+        return (rs, i) -> new DriftFlag(rs.getLong(1), rs.getLong(2), codes.get(rs.getLong(2)), rs.getString(3),
+                Signal.valueOf(rs.getString(4)), rs.getDouble(5), rs.getDouble(6), rs.getObject(7, LocalDate.class),
+                instant(rs.getTimestamp(8)), instant(rs.getTimestamp(9)), rs.getString(10), instant(rs.getTimestamp(11)),
+                rs.getString(12), instant(rs.getTimestamp(13)), rs.getString(14));
+    }
 
     private static Instant instant(Timestamp t) {
         return t == null ? null : t.toInstant();
     }
 
     Optional<DriftFlag> open(long locationId, String measure, Signal signal) {
-        return jdbc.query("select " + COLUMNS + " from drift_flag f join location l on l.id = f.location_id "
-                + "where f.location_id = ? and f.measure = ? and f.signal = ? and f.cleared_at is null", MAPPER, locationId,
+        return jdbc.query("select " + COLUMNS + " from drift_flag f "
+                + "where f.location_id = ? and f.measure = ? and f.signal = ? and f.cleared_at is null", mapper(), locationId,
                 measure, signal.name()).stream().findFirst();
     }
 
@@ -60,15 +68,20 @@ class FlagStore {
     }
 
     Optional<DriftFlag> byId(long id) {
-        return jdbc.query("select " + COLUMNS + " from drift_flag f join location l on l.id = f.location_id where f.id = ?",
-                MAPPER, id).stream().findFirst();
+        return jdbc.query("select " + COLUMNS + " from drift_flag f where f.id = ?", mapper(), id).stream().findFirst();
     }
 
     /** Flags, newest first: open ones only, or all (history), optionally for one location. */
     List<DriftFlag> list(Long locationId, boolean openOnly, int limit) {
         String where = (openOnly ? " and f.cleared_at is null" : "") + (locationId == null ? "" : " and f.location_id = "
                 + locationId);
-        return jdbc.query("select " + COLUMNS + " from drift_flag f join location l on l.id = f.location_id where 1 = 1"
-                + where + " order by f.raised_at desc, f.id desc fetch first " + limit + " rows only", MAPPER);
+        return jdbc.query("select " + COLUMNS + " from drift_flag f where 1 = 1"
+                + where + " order by f.raised_at desc, f.id desc fetch first " + limit + " rows only", mapper());
+    }
+
+    /** Counts that change whenever a flag is raised, cleared or acknowledged (for the overview's cache). */
+    List<Long> version() {
+        return jdbc.queryForObject("select count(*), count(cleared_at), count(acknowledged_at) from drift_flag",
+                (rs, i) -> List.of(rs.getLong(1), rs.getLong(2), rs.getLong(3)));
     }
 }

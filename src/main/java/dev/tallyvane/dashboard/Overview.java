@@ -3,6 +3,7 @@ package dev.tallyvane.dashboard;
 import dev.tallyvane.accuracy.AccuracyService;
 import dev.tallyvane.accuracy.AccuracyService.Glance;
 import dev.tallyvane.accuracy.DriftFlag;
+import dev.tallyvane.forecasting.IssuedForecasts;
 import dev.tallyvane.forecasting.NextPeriods;
 import dev.tallyvane.forecasting.NextPeriods.Next;
 import dev.tallyvane.intake.FigureRules;
@@ -32,20 +33,10 @@ public class Overview {
     /** Rows per page. */
     public static final int PAGE_SIZE = 50;
 
-    /**
-     * Detects any change the overview shows: a new forecast (which also rewrites the accuracy
-     * glance and re-evaluates flags), a flag raised, cleared or acknowledged, a location added or
-     * changed (its optimistic-lock version). Cheap: counts and maxima over small tables or keys.
-     */
-    private static final String VERSION = "select (select coalesce(max(id), 0) from issued_forecast), "
-            + "(select count(*) from drift_flag), (select count(*) from drift_flag where cleared_at is null), "
-            + "(select count(*) from drift_flag where acknowledged_at is not null), (select count(*) from location), "
-            + "(select coalesce(sum(version), 0) from location), (select coalesce(max(id), 0) from location)";
-
     private final LocationService locations;
     private final NextPeriods next;
     private final AccuracyService accuracy;
-    private final org.springframework.jdbc.core.JdbcTemplate jdbc;
+    private final IssuedForecasts issued;
 
     /** The rows of every location, by code, with the data version they were read at. */
     private record Snapshot(List<Long> version, List<Row> rows) {
@@ -53,12 +44,11 @@ public class Overview {
 
     private volatile Snapshot snapshot = new Snapshot(List.of(), List.of());
 
-    Overview(LocationService locations, NextPeriods next, AccuracyService accuracy,
-            org.springframework.jdbc.core.JdbcTemplate jdbc) {
+    Overview(LocationService locations, NextPeriods next, AccuracyService accuracy, IssuedForecasts issued) {
         this.locations = locations;
         this.next = next;
         this.accuracy = accuracy;
-        this.jdbc = jdbc;
+        this.issued = issued;
     }
 
     /**
@@ -66,13 +56,7 @@ public class Overview {
      * many people opening the overview cost one small query each, not a read of every table).
      */
     private List<Row> allRows() {
-        List<Long> version = jdbc.queryForObject(VERSION, (rs, i) -> {
-            List<Long> v = new ArrayList<>();
-            for (int c = 1; c <= 7; c++) {
-                v.add(rs.getLong(c));
-            }
-            return v;
-        });
+        List<Long> version = dataVersion();
         Snapshot s = snapshot;
         if (s.version().equals(version)) {
             return s.rows();
@@ -91,6 +75,20 @@ public class Overview {
         List<Row> frozen = List.copyOf(rows);
         snapshot = new Snapshot(version, frozen);
         return frozen;
+    }
+
+    /**
+     * Detects any change the overview shows: a new forecast (which also rewrites the accuracy
+     * glance and re-evaluates flags), a flag raised, cleared or acknowledged, a location added or
+     * changed (its optimistic-lock version). Cheap: counts and maxima over small tables or keys, each
+     * asked of the module that owns them.
+     */
+    private List<Long> dataVersion() {
+        List<Long> v = new ArrayList<>();
+        v.add(issued.newestId());
+        v.addAll(accuracy.flagsVersion());
+        v.addAll(locations.version());
+        return v;
     }
 
     /** How a choice appears in the page's address: {@code NO_FORECAST} → {@code no-forecast}. */
@@ -182,7 +180,7 @@ public class Overview {
                             .mapToObj(v -> Double.isNaN(v) ? "n/a" : String.format(Locale.ROOT, "%.1f%%", v))
                             .collect(Collectors.joining(", "));
             return new Row(location, glance, next, List.copyOf(flags), points, text, flags.stream()
-                    .map(f -> f.signal().name().toLowerCase(Locale.ROOT).replace('_', ' ')).toList());
+                    .map(DriftFlag::label).toList());
         }
 
         /** Absolute error of the last scored period in percent of its actual, or NaN. */

@@ -18,8 +18,8 @@ import org.slf4j.LoggerFactory;
 import org.springframework.beans.factory.ObjectProvider;
 import org.springframework.context.annotation.Bean;
 import org.springframework.context.annotation.Configuration;
-import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.stereotype.Service;
+import org.springframework.modulith.events.ApplicationModuleListener;
 import org.springframework.transaction.event.TransactionPhase;
 import org.springframework.transaction.event.TransactionalEventListener;
 
@@ -44,17 +44,15 @@ public class RefitQueue {
     private final SeriesStateStore state;
     private final IssuedForecastStore issued;
     private final RefitProperties properties;
-    private final JdbcTemplate jdbc;
     private final Clock clock;
     private final ObjectProvider<Jobs> jobs;
     private final CustomTask<Void> refitTask;
 
-    RefitQueue(SeriesStateStore state, IssuedForecastStore issued, RefitProperties properties, JdbcTemplate jdbc,
+    RefitQueue(SeriesStateStore state, IssuedForecastStore issued, RefitProperties properties,
             Clock clock, ObjectProvider<Jobs> jobs, CustomTask<Void> refitTask) {
         this.state = state;
         this.issued = issued;
         this.properties = properties;
-        this.jdbc = jdbc;
         this.clock = clock;
         this.jobs = jobs;
         this.refitTask = refitTask;
@@ -107,39 +105,19 @@ public class RefitQueue {
     }
 
     /**
-     * Figures were committed: queue a re-fit of each series after the coalescing window, on the
-     * queueing thread, after the posting request has given back its connection. Should the process
-     * stop before that, the nightly sweep finds the series from the figures themselves.
+     * Figures were committed: queue a re-fit of each series after the coalescing window. A module
+     * event: kept in the event publication registry from the posting transaction until this has
+     * run, and run again at the next start should the process die first, so every committed figure
+     * leads to its re-fit without waiting for the nightly sweep. Queueing is idempotent (one queue
+     * entry per series), so a second delivery changes nothing.
      */
-    @TransactionalEventListener(phase = TransactionPhase.AFTER_COMMIT)
+    @ApplicationModuleListener
     void figuresRecorded(FiguresRecorded event) {
         Instant due = Instant.now().plus(properties.coalesce());
-        List<SeriesStateStore.SeriesKey> keys = event.series().stream()
-                .map(ref -> new SeriesStateStore.SeriesKey(ref.locationId(), ref.measure())).toList();
-        queueing.execute(() -> {
-            for (SeriesStateStore.SeriesKey key : keys) {
-                try {
-                    jobs.getObject().client().scheduleIfNotExists(refitTask.instance(key.instance()), due);
-                } catch (RuntimeException e) {
-                    log.warn("could not queue the re-fit of {} (the nightly sweep will): {}", key.instance(),
-                            e.getMessage());
-                }
-            }
-        });
-    }
-
-    /** One thread queues re-fits after commits, in commit order. */
-    private final java.util.concurrent.ExecutorService queueing = java.util.concurrent.Executors
-            .newSingleThreadExecutor(r -> {
-                Thread t = new Thread(r, "refit-queueing");
-                t.setDaemon(true);
-                return t;
-            });
-
-    @jakarta.annotation.PreDestroy
-    void stopQueueing() throws InterruptedException {
-        queueing.shutdown();
-        queueing.awaitTermination(10, java.util.concurrent.TimeUnit.SECONDS);
+        for (FiguresRecorded.SeriesRef ref : event.series()) {
+            var key = new SeriesStateStore.SeriesKey(ref.locationId(), ref.measure());
+            jobs.getObject().client().scheduleIfNotExists(refitTask.instance(key.instance()), due);
+        }
     }
 
     /** Queues a re-fit now of every series of one location (or of all, when null); returns how many. */
@@ -179,17 +157,8 @@ public class RefitQueue {
 
     /** Progress of one location's series (all locations when null), for a token scoped to one location. */
     public Status status(Long locationId) {
-        String task = locationId == null ? "" : " and task_instance like ?";
-        Object[] refit = locationId == null ? new Object[] {REFIT} : new Object[] {REFIT, locationId + ":%"};
-        Long queued = jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = ? and picked = false"
-                + task, Long.class, refit);
-        Long running = jdbc.queryForObject("select count(*) from scheduled_tasks where task_name = ? and picked = true"
-                + task, Long.class, refit);
-        Long failing = locationId == null
-                ? jdbc.queryForObject("select count(*) from series_state where last_outcome like 'failed%'", Long.class)
-                : jdbc.queryForObject("select count(*) from series_state where last_outcome like 'failed%' and location_id = ?",
-                        Long.class, locationId);
-        return new Status(queued, running, issued.issuedSince(clock.instant().minus(Duration.ofHours(24)), locationId),
-                failing);
+        Jobs.Counts tasks = jobs.getObject().counts(REFIT, locationId == null ? null : locationId + ":");
+        return new Status(tasks.waiting(), tasks.running(),
+                issued.issuedSince(clock.instant().minus(Duration.ofHours(24)), locationId), state.failing(locationId));
     }
 }

@@ -1,6 +1,5 @@
 package dev.tallyvane.forecasting;
 
-import dev.tallyvane.accuracy.AccuracyService;
 import dev.tallyvane.engine.ForecastEngine;
 import dev.tallyvane.engine.ForecastRequest;
 import dev.tallyvane.engine.ForecastResult;
@@ -20,14 +19,16 @@ import java.util.Optional;
 import java.util.Set;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
+import org.springframework.context.ApplicationEventPublisher;
 import org.springframework.stereotype.Service;
 import org.springframework.transaction.annotation.Transactional;
 import tools.jackson.databind.json.JsonMapper;
 
 /**
- * One re-fit of a location's measure: score the earlier forecasts against the actuals now known
- * and watch for drift, then read the series, run the engine with the location's settings and
- * issue a new forecast (with the seasonal-naive benchmark beside it, for the value added).
+ * One re-fit of a location's measure: read the series, run the engine with the location's
+ * settings and issue a new forecast (with the seasonal-naive benchmark beside it, for the value
+ * added), publishing {@link ForecastIssued}; scoring earlier forecasts and watching for drift is
+ * the accuracy module's, which listens for that event and for new figures.
  */
 @Service
 public class RefitService {
@@ -39,18 +40,18 @@ public class RefitService {
     private final SeriesAssembler assembler;
     private final IssuedForecastStore issued;
     private final SeriesStateStore state;
-    private final AccuracyService accuracy;
+    private final ApplicationEventPublisher events;
     private final JsonMapper json;
     private final Clock clock;
 
     RefitService(LocationService locations, SettingsService settings, SeriesAssembler assembler, IssuedForecastStore issued,
-            SeriesStateStore state, AccuracyService accuracy, JsonMapper json, Clock clock) {
+            SeriesStateStore state, ApplicationEventPublisher events, JsonMapper json, Clock clock) {
         this.locations = locations;
         this.settings = settings;
         this.assembler = assembler;
         this.issued = issued;
         this.state = state;
-        this.accuracy = accuracy;
+        this.events = events;
         this.json = json;
         this.clock = clock;
     }
@@ -64,7 +65,6 @@ public class RefitService {
         Instant cutoff = clock.instant().truncatedTo(ChronoUnit.MICROS);
         SeriesStateStore.SeriesKey key = new SeriesStateStore.SeriesKey(locationId, measure);
         Location location = locations.byId(locationId);
-        accuracy.scoreAndWatch(location, measure);
         ForecastSettings s = settings.settings(locationId, measure);
         Granularity granularity = assembler.granularity(location, measure, s);
         Optional<Series> series = assembler.assemble(location, measure, granularity, cutoff);
@@ -118,6 +118,7 @@ public class RefitService {
                 ForecastEngine.VERSION, clock.instant(), issuedBy, durationMs, points);
         long id = issued.insert(f);
         issued.saveFit(locationId, measure, id, json.writeValueAsString(fitted(result.history())));
+        events.publishEvent(new ForecastIssued(id, locationId, measure, clock.instant()));
         String message = "issued #" + id + ": " + result.chosenName();
         state.fitted(key, clock.instant(), cutoff, message);
         return new Outcome(id, message, cutoff);

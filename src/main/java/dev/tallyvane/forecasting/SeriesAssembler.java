@@ -3,7 +3,9 @@ package dev.tallyvane.forecasting;
 import dev.tallyvane.engine.series.CalendarFacts;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.engine.series.Series;
+import dev.tallyvane.intake.FigureFacts;
 import dev.tallyvane.intake.SeriesReader;
+import org.springframework.jdbc.core.JdbcTemplate;
 import dev.tallyvane.location.Location;
 import java.time.Instant;
 import java.time.LocalDate;
@@ -11,7 +13,6 @@ import java.util.HashSet;
 import java.util.List;
 import java.util.Optional;
 import java.util.Set;
-import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.stereotype.Component;
 
 /**
@@ -25,10 +26,12 @@ import org.springframework.stereotype.Component;
 class SeriesAssembler {
 
     private final SeriesReader reader;
+    private final FigureFacts figures;
     private final JdbcTemplate jdbc;
 
-    SeriesAssembler(SeriesReader reader, JdbcTemplate jdbc) {
+    SeriesAssembler(SeriesReader reader, FigureFacts figures, JdbcTemplate jdbc) {
         this.reader = reader;
+        this.figures = figures;
         this.jdbc = jdbc;
     }
 
@@ -37,8 +40,7 @@ class SeriesAssembler {
         if (settings.granularity() != null) {
             return settings.granularity();
         }
-        List<String> stored = jdbc.queryForList("select distinct granularity from figure_revision where location_id = ? "
-                + "and measure = ? and superseded_at is null", String.class, location.getId(), measure);
+        List<String> stored = figures.storedGranularities(location.getId(), measure);
         if (stored.contains(Granularity.DAY.name()) || stored.contains(Granularity.WEEK.name())) {
             return Granularity.WEEK;
         }

@@ -2,7 +2,15 @@ package dev.tallyvane.forecasting;
 
 import java.sql.Timestamp;
 import java.time.Instant;
+import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.stream.Collectors;
+import dev.tallyvane.intake.FigureFacts;
+import dev.tallyvane.location.Location;
+import dev.tallyvane.location.LocationService;
 import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.stereotype.Repository;
 
@@ -11,9 +19,13 @@ import org.springframework.stereotype.Repository;
 class SeriesStateStore {
 
     private final JdbcTemplate jdbc;
+    private final FigureFacts figures;
+    private final LocationService locations;
 
-    SeriesStateStore(JdbcTemplate jdbc) {
+    SeriesStateStore(JdbcTemplate jdbc, FigureFacts figures, LocationService locations) {
         this.jdbc = jdbc;
+        this.figures = figures;
+        this.locations = locations;
     }
 
     /** A series to re-fit. */
@@ -59,22 +71,49 @@ class SeriesStateStore {
     }
 
     /**
-     * Series whose newest figure is newer than their last fit, or whose last fit is older than
-     * {@code fittedBefore} (a new period may have ended since), or that were never fitted. Read from
-     * the figures themselves, so a change whose re-fit was never queued (a crash) is still found.
+     * Series of active locations whose newest figure is newer than their last fit, or whose last fit
+     * is older than {@code fittedBefore} (a new period may have ended since), or that were never
+     * fitted. Read from the figures themselves (the intake's read API), so a change whose re-fit was
+     * never queued is still found.
      */
     List<SeriesKey> stale(Instant fittedBefore) {
-        return jdbc.query("select r.location_id, r.measure from figure_revision r join location l on l.id = r.location_id "
-                + "left join series_state s on s.location_id = r.location_id and s.measure = r.measure "
-                + "where l.status = 'ACTIVE' group by r.location_id, r.measure, s.fitted_cutoff, s.fitted_at "
-                + "having s.fitted_cutoff is null or max(r.recorded_at) > s.fitted_cutoff or s.fitted_at < ?",
-                (rs, i) -> new SeriesKey(rs.getLong(1), rs.getString(2)), Timestamp.from(fittedBefore));
+        Map<SeriesKey, Instant[]> fits = new HashMap<>();
+        jdbc.query("select location_id, measure, fitted_cutoff, fitted_at from series_state", rs -> {
+            Timestamp cutoff = rs.getTimestamp(3);
+            Timestamp at = rs.getTimestamp(4);
+            fits.put(new SeriesKey(rs.getLong(1), rs.getString(2)), new Instant[] {cutoff == null ? null
+                    : cutoff.toInstant(), at == null ? null : at.toInstant()});
+        });
+        Set<Long> active = activeLocations();
+        List<SeriesKey> out = new ArrayList<>();
+        for (FigureFacts.SeriesActivity a : figures.series(null)) {
+            SeriesKey key = new SeriesKey(a.locationId(), a.measure());
+            Instant[] fit = fits.get(key);
+            if (active.contains(a.locationId()) && (fit == null || fit[0] == null || a.lastRecorded().isAfter(fit[0])
+                    || fit[1] == null || fit[1].isBefore(fittedBefore))) {
+                out.add(key);
+            }
+        }
+        return out;
     }
 
-    /** Every series with figures (for "re-fit all"). */
+    /** Every series with figures of active locations (of one location, or all when null), for "re-fit now". */
     List<SeriesKey> all(Long locationId) {
-        return jdbc.query("select distinct r.location_id, r.measure from figure_revision r join location l on "
-                + "l.id = r.location_id where l.status = 'ACTIVE'" + (locationId == null ? "" : " and r.location_id = "
-                + locationId), (rs, i) -> new SeriesKey(rs.getLong(1), rs.getString(2)));
+        Set<Long> active = activeLocations();
+        return figures.series(locationId).stream().filter(a -> active.contains(a.locationId()))
+                .map(a -> new SeriesKey(a.locationId(), a.measure())).toList();
+    }
+
+    /** How many series (of one location, or all when null) failed their last fit. */
+    long failing(Long locationId) {
+        Long n = locationId == null
+                ? jdbc.queryForObject("select count(*) from series_state where last_outcome like 'failed%'", Long.class)
+                : jdbc.queryForObject("select count(*) from series_state where last_outcome like 'failed%' and "
+                        + "location_id = ?", Long.class, locationId);
+        return n == null ? 0 : n;
+    }
+
+    private Set<Long> activeLocations() {
+        return locations.all().stream().filter(Location::isActive).map(Location::getId).collect(Collectors.toSet());
     }
 }

@@ -10,14 +10,21 @@ import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.stereotype.Component;
 import org.springframework.transaction.annotation.Transactional;
 
-/** Read-only figure facts for the location pages: counts, latest period, recent values. */
+/**
+ * The intake module's read API over the figures it keeps (besides {@link SeriesReader}'s series):
+ * counts, latest periods, recent values, which series exist and when they last changed, and every
+ * revision for exports. Records out; no other module names the figure tables in SQL.
+ */
 @Component
 public class FigureFacts {
 
     private final JdbcTemplate jdbc;
+    private final JdbcTemplate streaming;
 
-    FigureFacts(JdbcTemplate jdbc) {
+    FigureFacts(JdbcTemplate jdbc, javax.sql.DataSource dataSource) {
         this.jdbc = jdbc;
+        this.streaming = new JdbcTemplate(dataSource);
+        this.streaming.setFetchSize(1_000);
     }
 
     /** Per location: how many current figures, the latest period, and when the last one arrived. */
@@ -51,5 +58,64 @@ public class FigureFacts {
                         rs.getObject(3, LocalDate.class), rs.getBigDecimal(4).stripTrailingZeros(),
                         rs.getTimestamp(5).toInstant(), rs.getString(6), rs.getString(7), rs.getInt(8)),
                 locationId);
+    }
+
+    /** The granularities a series' current figures are stored at (DAY, WEEK, MONTH). */
+    @Transactional(readOnly = true)
+    public List<String> storedGranularities(long locationId, String measure) {
+        return jdbc.queryForList("select distinct granularity from figure_revision where location_id = ? "
+                + "and measure = ? and superseded_at is null", String.class, locationId, measure);
+    }
+
+    /** The start of a series' latest period with a current figure, if any. */
+    @Transactional(readOnly = true)
+    public java.util.Optional<LocalDate> latestPeriod(long locationId, String measure) {
+        return java.util.Optional.ofNullable(jdbc.queryForObject("select max(period_start) from figure_revision where "
+                + "location_id = ? and measure = ? and superseded_at is null", LocalDate.class, locationId, measure));
+    }
+
+    /** A series with figures, and when a figure of it was last recorded. */
+    public record SeriesActivity(long locationId, String measure, Instant lastRecorded) {
+    }
+
+    /** Every series with figures (of one location, or all when null). */
+    @Transactional(readOnly = true)
+    public List<SeriesActivity> series(Long locationId) {
+        return jdbc.query("select location_id, measure, max(recorded_at) from figure_revision"
+                + (locationId == null ? "" : " where location_id = ?") + " group by location_id, measure",
+                (rs, i) -> new SeriesActivity(rs.getLong(1), rs.getString(2), rs.getTimestamp(3).toInstant()),
+                locationId == null ? new Object[0] : new Object[] {locationId});
+    }
+
+    /** One stored figure revision: current (replacedAt null) or replaced by a correction. */
+    public record Revision(String measure, String granularity, LocalDate period, BigDecimal amount, Instant recordedAt,
+            Instant replacedAt, String source, String actor, Long uploadId) {
+    }
+
+    /**
+     * Every revision of a location's figures whose period lies in [from, to] (either open when null),
+     * by measure, granularity, period and time recorded, streamed to {@code out}.
+     */
+    @Transactional(readOnly = true)
+    public void revisions(long locationId, LocalDate from, LocalDate to, java.util.function.Consumer<Revision> out) {
+        List<Object> args = new java.util.ArrayList<>(List.of(locationId));
+        String where = "location_id = ?";
+        if (from != null) {
+            where += " and period_start >= ?";
+            args.add(from);
+        }
+        if (to != null) {
+            where += " and period_start <= ?";
+            args.add(to);
+        }
+        streaming.query("select measure, granularity, period_start, amount, recorded_at, superseded_at, source, actor, "
+                + "upload_id from figure_revision where " + where + " order by measure, granularity, period_start, "
+                + "recorded_at, id", rs -> {
+                    java.sql.Timestamp replaced = rs.getTimestamp(6);
+                    out.accept(new Revision(rs.getString(1), rs.getString(2), rs.getObject(3, LocalDate.class),
+                            rs.getBigDecimal(4).stripTrailingZeros(), rs.getTimestamp(5).toInstant(),
+                            replaced == null ? null : replaced.toInstant(), rs.getString(7), rs.getString(8),
+                            rs.getObject(9, Long.class)));
+                }, args.toArray());
     }
 }

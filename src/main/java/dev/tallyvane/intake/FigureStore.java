@@ -45,15 +45,6 @@ class FigureStore {
     record Current(long revisionId, BigDecimal amount) {
     }
 
-    /** Locks the location rows (in id order, so two writers never deadlock) until the transaction ends. */
-    void lockLocations(Collection<Long> locationIds) {
-        if (locationIds.isEmpty()) {
-            return;
-        }
-        named.queryForList("select id from location where id in (:ids) order by id for update",
-                new MapSqlParameterSource("ids", locationIds), Long.class);
-    }
-
     /** Current values of one measure and granularity for these locations between two periods. */
     Map<FigureKey, Current> current(Collection<Long> locationIds, String measure, Granularity granularity,
             LocalDate from, LocalDate to) {

@@ -2,7 +2,7 @@ package dev.tallyvane.intake;
 
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.location.Location;
-import dev.tallyvane.location.LocationRepository;
+import dev.tallyvane.location.LocationService;
 import dev.tallyvane.system.InvalidRequest;
 import dev.tallyvane.system.InvalidRequest.FieldProblem;
 import java.time.Clock;
@@ -34,11 +34,11 @@ public class IntakeService {
 
     private final FigureStore store;
     private final FigureRules rules;
-    private final LocationRepository locations;
+    private final LocationService locations;
     private final ApplicationEventPublisher events;
     private final Clock clock;
 
-    IntakeService(FigureStore store, FigureRules rules, LocationRepository locations, ApplicationEventPublisher events,
+    IntakeService(FigureStore store, FigureRules rules, LocationService locations, ApplicationEventPublisher events,
             Clock clock) {
         this.store = store;
         this.rules = rules;
@@ -59,7 +59,7 @@ public class IntakeService {
         if (!problems.isEmpty()) {
             throw rejected(problems, figures.size());
         }
-        store.lockLocations(byCode.values().stream().map(Location::getId).sorted().toList());
+        locations.lockForWriting(byCode.values().stream().map(Location::getId).sorted().toList());
         Plan plan = plan(figures, byCode);
         Instant now = clock.instant().truncatedTo(ChronoUnit.MICROS);
         store.supersede(plan.superseded, now);
@@ -93,7 +93,7 @@ public class IntakeService {
 
     private Map<String, Location> locationsOf(List<FigureInput> figures) {
         Set<String> codes = figures.stream().map(FigureInput::locationCode).collect(Collectors.toSet());
-        return locations.findByCodeIn(codes).stream().collect(Collectors.toMap(Location::getCode, Function.identity()));
+        return locations.byCodes(codes).stream().collect(Collectors.toMap(Location::getCode, Function.identity()));
     }
 
     private record Plan(List<Long> superseded, List<FigureStore.NewRevision> written, IntakeResult result) {

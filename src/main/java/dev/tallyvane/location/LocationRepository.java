@@ -5,7 +5,7 @@ import java.util.List;
 import java.util.Optional;
 import org.springframework.data.jpa.repository.JpaRepository;
 
-public interface LocationRepository extends JpaRepository<Location, Long> {
+interface LocationRepository extends JpaRepository<Location, Long> {
 
     Optional<Location> findByCode(String code);
 

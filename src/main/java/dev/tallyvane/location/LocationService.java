@@ -22,10 +22,33 @@ public class LocationService {
 
     private final LocationRepository locations;
     private final Clock clock;
+    private final org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate named;
 
-    LocationService(LocationRepository locations, Clock clock) {
+    LocationService(LocationRepository locations, Clock clock,
+            org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate named) {
         this.locations = locations;
         this.clock = clock;
+        this.named = named;
+    }
+
+    /**
+     * Locks these locations' rows until the calling transaction ends, in id order so two writers
+     * never deadlock: the intake writes a location's figures only under its lock.
+     */
+    @Transactional(propagation = org.springframework.transaction.annotation.Propagation.MANDATORY)
+    public void lockForWriting(java.util.Collection<Long> locationIds) {
+        if (locationIds.isEmpty()) {
+            return;
+        }
+        named.queryForList("select id from location where id in (:ids) order by id for update",
+                new org.springframework.jdbc.core.namedparam.MapSqlParameterSource("ids", locationIds), Long.class);
+    }
+
+    /** Numbers that change whenever a location is added or changed (count, sum of versions, newest id). */
+    @Transactional(readOnly = true)
+    public List<Long> version() {
+        return named.getJdbcTemplate().queryForObject("select count(*), coalesce(sum(version), 0), coalesce(max(id), 0) "
+                + "from location", (rs, i) -> List.of(rs.getLong(1), rs.getLong(2), rs.getLong(3)));
     }
 
     /** Upper-cases and trims a code as stored. */
@@ -36,6 +59,22 @@ public class LocationService {
     @Transactional(readOnly = true)
     public List<Location> all() {
         return locations.findAllByOrderByCodeAsc();
+    }
+
+    /** The locations with these codes (as stored; unknown codes are left out). */
+    @Transactional(readOnly = true)
+    public List<Location> byCodes(java.util.Collection<String> codes) {
+        return locations.findByCodeIn(codes);
+    }
+
+    /** Every location's code by its id. */
+    @Transactional(readOnly = true)
+    public java.util.Map<Long, String> codesById() {
+        java.util.Map<Long, String> out = new java.util.HashMap<>();
+        for (Location l : locations.findAll()) {
+            out.put(l.getId(), l.getCode());
+        }
+        return out;
     }
 
     @Transactional(readOnly = true)

@@ -1,14 +1,15 @@
 package dev.tallyvane.summary;
 
+import dev.tallyvane.accuracy.AccuracyService;
 import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.forecasting.IssuedForecasts;
+import dev.tallyvane.intake.FigureFacts;
 import dev.tallyvane.intake.FigureRules;
 import dev.tallyvane.intake.SeriesReader;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
 import java.math.BigDecimal;
 import java.math.RoundingMode;
-import java.sql.Timestamp;
-import java.time.Clock;
 import java.time.LocalDate;
 import java.time.ZoneId;
 import java.util.ArrayList;
@@ -16,7 +17,6 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.TreeMap;
-import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.stereotype.Component;
 import org.springframework.transaction.annotation.Transactional;
 
@@ -38,14 +38,17 @@ class SummaryBuilder {
 
     private final LocationService locations;
     private final SeriesReader reader;
-    private final JdbcTemplate jdbc;
-    private final Clock clock;
+    private final FigureFacts figures;
+    private final IssuedForecasts issued;
+    private final AccuracyService accuracy;
 
-    SummaryBuilder(LocationService locations, SeriesReader reader, JdbcTemplate jdbc, Clock clock) {
+    SummaryBuilder(LocationService locations, SeriesReader reader, FigureFacts figures, IssuedForecasts issued,
+            AccuracyService accuracy) {
         this.locations = locations;
         this.reader = reader;
-        this.jdbc = jdbc;
-        this.clock = clock;
+        this.figures = figures;
+        this.issued = issued;
+        this.accuracy = accuracy;
     }
 
     @Transactional(readOnly = true)
@@ -67,23 +70,13 @@ class SummaryBuilder {
             BigDecimal actual = weeks.stream().filter(p -> p.period().equals(weekStart)).map(SeriesReader.Point::amount)
                     .findFirst().orElse(null);
             anyFigures |= actual != null;
-            BigDecimal forecast = jdbc.query("select p.forecast from issued_forecast_point p join issued_forecast f on "
-                    + "f.id = p.issued_id where f.location_id = ? and f.measure = ? and f.granularity = 'WEEK' and "
-                    + "p.period_start = ? and f.last_period < ? order by f.id desc fetch first 1 rows only",
-                    (rs, i) -> money(rs.getDouble(1)), l.getId(), measure, weekStart, weekStart).stream().findFirst()
-                    .orElse(null);
-            List<double[]> ahead = jdbc.query("select p.period_start, p.forecast, p.lo80, p.hi80 from issued_forecast_point p "
-                    + "where p.issued_id = (select max(f.id) from issued_forecast f where f.location_id = ? and f.measure = ? "
-                    + "and f.granularity = 'WEEK') and p.period_start >= ? order by p.step", (rs, i) -> new double[] {
-                        rs.getObject(1, LocalDate.class).toEpochDay(), rs.getDouble(2), rs.getDouble(3), rs.getDouble(4)},
-                    l.getId(), measure, nextWeek);
+            BigDecimal forecast = issued.madeAhead(l.getId(), measure, Granularity.WEEK.name(), weekStart)
+                    .map(p -> money(p.forecast())).orElse(null);
+            List<double[]> ahead = issued.newestFrom(l.getId(), measure, Granularity.WEEK.name(), nextWeek).stream()
+                    .map(p -> new double[] {p.period().toEpochDay(), p.forecast(), p.lo80(), p.hi80()}).toList();
             double[] next = ahead.stream().filter(a -> (long) a[0] == nextWeek.toEpochDay()).findFirst().orElse(null);
-            List<String> flags = jdbc.queryForList("select reason from drift_flag where location_id = ? and measure = ? and "
-                    + "cleared_at is null and (snoozed_until is null or snoozed_until < ?) order by raised_at", String.class,
-                    l.getId(), measure, Timestamp.from(clock.instant()));
-            LocalDate lastFigure = actual != null ? null : jdbc.queryForObject("select max(period_start) from "
-                    + "figure_revision where location_id = ? and measure = ? and superseded_at is null", LocalDate.class,
-                    l.getId(), measure);
+            List<String> flags = accuracy.attention(l.getId(), measure);
+            LocalDate lastFigure = actual != null ? null : figures.latestPeriod(l.getId(), measure).orElse(null);
             lines.add(new WeeklySummary.Line(l.getCode(), l.getName(), l.getCurrency(), actual, forecast,
                     next == null ? null : money(next[1]), next == null ? null : money(next[2]),
                     next == null ? null : money(next[3]), flags, lastFigure));

@@ -54,6 +54,19 @@ public class Jobs implements SmartLifecycle {
         return transactionalClient;
     }
 
+    /** How many jobs of a task wait (not picked) and run (picked), of instances whose id starts with {@code prefix} (all when null). */
+    public record Counts(long waiting, long running) {
+    }
+
+    public Counts counts(String taskName, String instancePrefix) {
+        String where = "task_name = ?" + (instancePrefix == null ? "" : " and task_instance like ?");
+        Object[] args = instancePrefix == null ? new Object[] {taskName}
+                : new Object[] {taskName, instancePrefix + "%"}; // prefixes such as "12:" hold no wildcard
+        return new org.springframework.jdbc.core.JdbcTemplate(dataSource).queryForObject("select "
+                + "coalesce(sum(case when picked then 0 else 1 end), 0), coalesce(sum(case when picked then 1 else 0 end), 0) "
+                + "from scheduled_tasks where " + where, (rs, i) -> new Counts(rs.getLong(1), rs.getLong(2)), args);
+    }
+
     public String instanceName() {
         return properties.instanceName();
     }

@@ -9,7 +9,7 @@ import dev.tallyvane.forecasting.SettingsService;
 import dev.tallyvane.intake.FigureRules;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
-import dev.tallyvane.location.web.LocationForm;
+import dev.tallyvane.location.LocationForm;
 import dev.tallyvane.system.InvalidRequest;
 import java.security.Principal;
 import java.util.Map;

@@ -1,6 +1,6 @@
 package dev.tallyvane.export.web;
 
-import dev.tallyvane.account.ApiClient;
+import dev.tallyvane.system.ApiClient;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
 import io.swagger.v3.oas.annotations.Operation;

@@ -1,9 +1,6 @@
 package dev.tallyvane.forecasting.web;
 
-import dev.tallyvane.account.ApiClient;
-import dev.tallyvane.accuracy.AccuracyService;
-import dev.tallyvane.accuracy.DriftFlag;
-import dev.tallyvane.accuracy.UnknownFlag;
+import dev.tallyvane.system.ApiClient;
 import dev.tallyvane.forecasting.ForecastSettings;
 import dev.tallyvane.forecasting.IssuedForecast;
 import dev.tallyvane.forecasting.RefitQueue;
@@ -20,7 +17,6 @@ import java.util.List;
 import java.util.Map;
 import org.springframework.http.HttpStatus;
 import org.springframework.http.ResponseEntity;
-import org.springframework.security.access.AccessDeniedException;
 import org.springframework.security.core.annotation.AuthenticationPrincipal;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
@@ -33,26 +29,24 @@ import org.springframework.web.bind.annotation.RestController;
 import tools.jackson.databind.JsonNode;
 import tools.jackson.databind.json.JsonMapper;
 
-/** Forecasts, accuracy, drift flags, re-fits and settings over the API. Forecasts are estimates with intervals. */
+/** Forecasts, re-fits and settings over the API. Forecasts are estimates with intervals. */
 @RestController
 @RequestMapping("/api/v1")
-@Tag(name = "Forecasts", description = "Issued forecasts (estimates with 80% and 95% intervals), accuracy, drift flags")
+@Tag(name = "Forecasts", description = "Issued forecasts (estimates with 80% and 95% intervals), re-fits, settings")
 class ForecastsApi {
 
     private final LocationService locations;
     private final RefitService refits;
     private final RefitQueue queue;
     private final SettingsService settings;
-    private final AccuracyService accuracy;
     private final JsonMapper json;
 
     ForecastsApi(LocationService locations, RefitService refits, RefitQueue queue, SettingsService settings,
-            AccuracyService accuracy, JsonMapper json) {
+            JsonMapper json) {
         this.locations = locations;
         this.refits = refits;
         this.queue = queue;
         this.settings = settings;
-        this.accuracy = accuracy;
         this.json = json;
     }
 
@@ -85,11 +79,6 @@ class ForecastsApi {
         return locations.byCodeWithin(code, client.locationId());
     }
 
-    private static void requireAll(ApiClient client) {
-        if (!client.allLocations()) {
-            throw new AccessDeniedException("Only a token for all locations may do this.");
-        }
-    }
 
     @Operation(summary = "The current forecast (the newest issued)")
     @GetMapping("/locations/{code}/forecast")
@@ -110,62 +99,13 @@ class ForecastsApi {
                 .stream().map(f -> view(l, f)).toList();
     }
 
-    /** Realized accuracy of a series. */
-    record AccuracyView(String location, String measure, List<AccuracyService.ByHorizon> byHorizon,
-            List<AccuracyService.StepOne> oneStepAhead, List<AccuracyService.Rolling> rollingSixPeriods) {
-    }
-
-    @Operation(summary = "Realized accuracy of a location's forecasts, by horizon and over time")
-    @GetMapping("/locations/{code}/accuracy")
-    AccuracyView accuracy(@PathVariable String code, @RequestParam(defaultValue = "net_sales") String measure,
-            @AuthenticationPrincipal ApiClient client) {
-        Location l = visible(code, client);
-        List<AccuracyService.StepOne> stepOne = accuracy.stepOneErrors(l.getId(), measure);
-        return new AccuracyView(l.getCode(), measure, accuracy.byHorizon(l.getId(), measure), stepOne,
-                AccuracyService.rolling(stepOne, 6));
-    }
-
-    @Operation(summary = "Realized accuracy of all locations, by horizon")
-    @GetMapping("/accuracy")
-    List<AccuracyService.ByHorizon> chainAccuracy(@RequestParam(required = false) String measure,
-            @AuthenticationPrincipal ApiClient client) {
-        requireAll(client);
-        return accuracy.byHorizon(null, measure);
-    }
-
-    @Operation(summary = "Drift flags (open ones by default)")
-    @GetMapping("/flags")
-    List<DriftFlag> flags(@RequestParam(defaultValue = "true") boolean open, @RequestParam(required = false) String location,
-            @AuthenticationPrincipal ApiClient client) {
-        Long id = location == null ? null : visible(location, client).getId();
-        if (id == null && !client.allLocations()) {
-            id = client.locationId();
-        }
-        return accuracy.flags(id, open);
-    }
-
-    /** Acknowledging a flag. */
-    record Acknowledgement(String note, Integer snoozeDays) {
-    }
-
-    @Operation(summary = "Acknowledge a drift flag, optionally snoozing it")
-    @PostMapping("/flags/{id}/acknowledge")
-    DriftFlag acknowledge(@PathVariable long id, @RequestBody(required = false) Acknowledgement body,
-            @AuthenticationPrincipal ApiClient client) {
-        // scope first: to a token of one location, another location's flag and no flag look the same
-        accuracy.flag(id).filter(f -> client.allLocations() || client.locationId().equals(f.locationId()))
-                .orElseThrow(() -> new UnknownFlag(id));
-        accuracy.acknowledge(id, client.actor(), body == null ? null : body.note(), body == null ? null : body.snoozeDays());
-        return accuracy.flag(id).orElseThrow();
-    }
-
     @Operation(summary = "Queue a re-fit now (one location, or all with a token for all locations)")
     @PostMapping("/refits")
     ResponseEntity<Map<String, Object>> refit(@RequestParam(required = false) String location,
             @AuthenticationPrincipal ApiClient client) {
         Long id = null;
         if (location == null) {
-            requireAll(client);
+            client.requireAllLocations("queue a re-fit of every location");
         } else {
             id = visible(location, client).getId();
         }

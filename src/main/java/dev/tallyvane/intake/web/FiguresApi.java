@@ -1,6 +1,6 @@
 package dev.tallyvane.intake.web;
 
-import dev.tallyvane.account.ApiClient;
+import dev.tallyvane.system.ApiClient;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.intake.FigurePosting;
 import dev.tallyvane.intake.IntakeResult;

@@ -1,6 +1,6 @@
 package dev.tallyvane.location.web;
 
-import dev.tallyvane.account.ApiClient;
+import dev.tallyvane.system.ApiClient;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationDetails;
 import dev.tallyvane.location.LocationService;
@@ -11,7 +11,6 @@ import java.time.LocalDate;
 import java.util.List;
 import org.springframework.http.HttpStatus;
 import org.springframework.http.ResponseEntity;
-import org.springframework.security.access.AccessDeniedException;
 import org.springframework.security.core.annotation.AuthenticationPrincipal;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
@@ -58,7 +57,7 @@ class LocationsApi {
     @Operation(summary = "Create a location (tokens for all locations only)")
     @PostMapping
     ResponseEntity<LocationView> create(@RequestBody LocationDetails details, @AuthenticationPrincipal ApiClient client) {
-        requireAll(client);
+        client.requireAllLocations("create or change locations");
         return ResponseEntity.status(HttpStatus.CREATED).body(LocationView.of(locations.create(details)));
     }
 
@@ -66,13 +65,8 @@ class LocationsApi {
     @PutMapping("/{code}")
     LocationView update(@PathVariable String code, @RequestBody LocationDetails details,
             @AuthenticationPrincipal ApiClient client) {
-        requireAll(client);
+        client.requireAllLocations("create or change locations");
         return LocationView.of(locations.update(code, details));
     }
 
-    private static void requireAll(ApiClient client) {
-        if (!client.allLocations()) {
-            throw new AccessDeniedException("Only a token for all locations may create or change locations.");
-        }
-    }
 }

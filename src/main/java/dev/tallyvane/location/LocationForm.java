@@ -1,6 +1,5 @@
-package dev.tallyvane.location.web;
+package dev.tallyvane.location;
 
-import dev.tallyvane.location.LocationDetails;
 import java.time.LocalDate;
 
 /** The location form (adding a location, or changing one on its page). */

@@ -1,0 +1,88 @@
+package dev.tallyvane.accuracy.web;
+
+import dev.tallyvane.accuracy.AccuracyService;
+import dev.tallyvane.accuracy.DriftFlag;
+import dev.tallyvane.accuracy.UnknownFlag;
+import dev.tallyvane.location.Location;
+import dev.tallyvane.location.LocationService;
+import dev.tallyvane.system.ApiClient;
+import io.swagger.v3.oas.annotations.Operation;
+import io.swagger.v3.oas.annotations.tags.Tag;
+import java.util.List;
+import org.springframework.security.core.annotation.AuthenticationPrincipal;
+import org.springframework.web.bind.annotation.GetMapping;
+import org.springframework.web.bind.annotation.PathVariable;
+import org.springframework.web.bind.annotation.PostMapping;
+import org.springframework.web.bind.annotation.RequestBody;
+import org.springframework.web.bind.annotation.RequestMapping;
+import org.springframework.web.bind.annotation.RequestParam;
+import org.springframework.web.bind.annotation.RestController;
+
+/** Realized accuracy and drift flags over the API (a token of one location sees its own only). */
+@RestController
+@RequestMapping("/api/v1")
+@Tag(name = "Accuracy", description = "Realized accuracy of issued forecasts, drift flags and their acknowledgement")
+class AccuracyApi {
+
+    private final LocationService locations;
+    private final AccuracyService accuracy;
+
+    AccuracyApi(LocationService locations, AccuracyService accuracy) {
+        this.locations = locations;
+        this.accuracy = accuracy;
+    }
+
+    private Location visible(String code, ApiClient client) {
+        return locations.byCodeWithin(code, client.locationId());
+    }
+
+
+    /** Realized accuracy of a series. */
+    record AccuracyView(String location, String measure, List<AccuracyService.ByHorizon> byHorizon,
+            List<AccuracyService.StepOne> oneStepAhead, List<AccuracyService.Rolling> rollingSixPeriods) {
+    }
+
+    @Operation(summary = "Realized accuracy of a location's forecasts, by horizon and over time")
+    @GetMapping("/locations/{code}/accuracy")
+    AccuracyView accuracy(@PathVariable String code, @RequestParam(defaultValue = "net_sales") String measure,
+            @AuthenticationPrincipal ApiClient client) {
+        Location l = visible(code, client);
+        List<AccuracyService.StepOne> stepOne = accuracy.stepOneErrors(l.getId(), measure);
+        return new AccuracyView(l.getCode(), measure, accuracy.byHorizon(l.getId(), measure), stepOne,
+                AccuracyService.rolling(stepOne, 6));
+    }
+
+    @Operation(summary = "Realized accuracy of all locations, by horizon")
+    @GetMapping("/accuracy")
+    List<AccuracyService.ByHorizon> chainAccuracy(@RequestParam(required = false) String measure,
+            @AuthenticationPrincipal ApiClient client) {
+        client.requireAllLocations("read the accuracy of every location");
+        return accuracy.byHorizon(null, measure);
+    }
+
+    @Operation(summary = "Drift flags (open ones by default)")
+    @GetMapping("/flags")
+    List<DriftFlag> flags(@RequestParam(defaultValue = "true") boolean open, @RequestParam(required = false) String location,
+            @AuthenticationPrincipal ApiClient client) {
+        Long id = location == null ? null : visible(location, client).getId();
+        if (id == null && !client.allLocations()) {
+            id = client.locationId();
+        }
+        return accuracy.flags(id, open);
+    }
+
+    /** Acknowledging a flag. */
+    record Acknowledgement(String note, Integer snoozeDays) {
+    }
+
+    @Operation(summary = "Acknowledge a drift flag, optionally snoozing it")
+    @PostMapping("/flags/{id}/acknowledge")
+    DriftFlag acknowledge(@PathVariable long id, @RequestBody(required = false) Acknowledgement body,
+            @AuthenticationPrincipal ApiClient client) {
+        // scope first: to a token of one location, another location's flag and no flag look the same
+        accuracy.flag(id).filter(f -> client.allLocations() || client.locationId().equals(f.locationId()))
+                .orElseThrow(() -> new UnknownFlag(id));
+        accuracy.acknowledge(id, client.actor(), body == null ? null : body.note(), body == null ? null : body.snoozeDays());
+        return accuracy.flag(id).orElseThrow();
+    }
+}
