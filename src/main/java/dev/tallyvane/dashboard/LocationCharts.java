@@ -1,9 +1,9 @@
 package dev.tallyvane.dashboard;
 
-import dev.tallyvane.accuracy.AccuracyService;
-import dev.tallyvane.accuracy.AccuracyService.ByHorizon;
-import dev.tallyvane.accuracy.AccuracyService.Rolling;
-import dev.tallyvane.accuracy.AccuracyService.StepOne;
+import dev.tallyvane.accuracy.AccuracyReports;
+import dev.tallyvane.accuracy.AccuracyReports.ByHorizon;
+import dev.tallyvane.accuracy.AccuracyReports.Rolling;
+import dev.tallyvane.accuracy.AccuracyReports.StepOne;
 import dev.tallyvane.forecasting.FittedHistory;
 import dev.tallyvane.forecasting.IssuedForecast;
 import dev.tallyvane.forecasting.RefitService;
@@ -29,9 +29,9 @@ import org.springframework.transaction.annotation.Transactional;
 public class LocationCharts {
 
     private final RefitService refits;
-    private final AccuracyService accuracy;
+    private final AccuracyReports accuracy;
 
-    LocationCharts(RefitService refits, AccuracyService accuracy) {
+    LocationCharts(RefitService refits, AccuracyReports accuracy) {
         this.refits = refits;
         this.accuracy = accuracy;
     }
@@ -120,7 +120,7 @@ public class LocationCharts {
             case "week" -> 8;
             default -> 6;
         };
-        List<Rolling> rolling = AccuracyService.rolling(errors, window);
+        List<Rolling> rolling = AccuracyReports.rolling(errors, window);
         List<Long> x = new ArrayList<>();
         List<LocalDate> periods = new ArrayList<>();
         List<Double> mape = new ArrayList<>();

@@ -1,6 +1,6 @@
 package dev.tallyvane.dashboard;
 
-import dev.tallyvane.accuracy.AccuracyService;
+import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.DriftFlag;
 import dev.tallyvane.forecasting.IssuedForecast;
 import dev.tallyvane.forecasting.RefitService;
@@ -18,12 +18,12 @@ import tools.jackson.databind.json.JsonMapper;
 public class LocationPage {
 
     private final RefitService refits;
-    private final AccuracyService accuracy;
+    private final FlagService accuracy;
     private final FigureFacts figures;
     private final LocationCharts charts;
     private final JsonMapper json;
 
-    LocationPage(RefitService refits, AccuracyService accuracy, FigureFacts figures, LocationCharts charts,
+    LocationPage(RefitService refits, FlagService accuracy, FigureFacts figures, LocationCharts charts,
             JsonMapper json) {
         this.refits = refits;
         this.accuracy = accuracy;

@@ -1,7 +1,8 @@
 package dev.tallyvane.dashboard;
 
-import dev.tallyvane.accuracy.AccuracyService;
-import dev.tallyvane.accuracy.AccuracyService.Glance;
+import dev.tallyvane.accuracy.AccuracyReports;
+import dev.tallyvane.accuracy.AccuracyReports.Glance;
+import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.DriftFlag;
 import dev.tallyvane.forecasting.IssuedForecasts;
 import dev.tallyvane.forecasting.NextPeriods;
@@ -35,7 +36,8 @@ public class Overview {
 
     private final LocationService locations;
     private final NextPeriods next;
-    private final AccuracyService accuracy;
+    private final AccuracyReports accuracy;
+    private final FlagService flagService;
     private final IssuedForecasts issued;
 
     /** The rows of every location, by code, with the data version they were read at. */
@@ -44,10 +46,12 @@ public class Overview {
 
     private volatile Snapshot snapshot = new Snapshot(List.of(), List.of());
 
-    Overview(LocationService locations, NextPeriods next, AccuracyService accuracy, IssuedForecasts issued) {
+    Overview(LocationService locations, NextPeriods next, AccuracyReports accuracy, FlagService flagService,
+            IssuedForecasts issued) {
         this.locations = locations;
         this.next = next;
         this.accuracy = accuracy;
+        this.flagService = flagService;
         this.issued = issued;
     }
 
@@ -64,7 +68,7 @@ public class Overview {
         String measure = FigureRules.DEFAULT_MEASURE;
         Map<Long, Next> nexts = next.of(measure);
         Map<Long, Glance> glances = accuracy.glances(measure);
-        Map<Long, List<DriftFlag>> flags = accuracy.flags(null, true).stream()
+        Map<Long, List<DriftFlag>> flags = flagService.flags(null, true).stream()
                 .filter(f -> f.measure().equals(measure))
                 .collect(Collectors.groupingBy(DriftFlag::locationId));
         List<Row> rows = new ArrayList<>();
@@ -86,7 +90,7 @@ public class Overview {
     private List<Long> dataVersion() {
         List<Long> v = new ArrayList<>();
         v.add(issued.newestId());
-        v.addAll(accuracy.flagsVersion());
+        v.addAll(flagService.flagsVersion());
         v.addAll(locations.version());
         return v;
     }

@@ -6,11 +6,9 @@ import dev.tallyvane.engine.ForecastResult.IntervalSource;
 import dev.tallyvane.engine.evaluation.LeaderboardEntry;
 import dev.tallyvane.engine.evaluation.Metric;
 import dev.tallyvane.engine.evaluation.RollingOriginBacktest;
-import dev.tallyvane.engine.model.CalendarRegression;
 import dev.tallyvane.engine.model.Candidate;
 import dev.tallyvane.engine.model.Combination;
 import dev.tallyvane.engine.model.SeasonalNaive;
-import dev.tallyvane.engine.model.TradingDayRegression;
 import dev.tallyvane.engine.model.Croston;
 import dev.tallyvane.engine.model.FittedModel;
 import dev.tallyvane.engine.model.Naive;
@@ -43,9 +41,9 @@ import org.apache.commons.math3.distribution.TDistribution;
  * <p><b>Selection</b>: rolling origins at the requested horizon ({@link RollingOriginBacktest});
  * the mean and the median of the three best candidates are scored on the same origins as more
  * candidates ({@link Combination}); lowest metric wins; on a tie the simpler candidate wins. With too
- * little history for a single origin the engine falls back to the naive method and says so. Monthly
- * series also get the trading-day regression, daily series the calendar regression (they need the
- * dates). Candidates with costly structural choices settle them on the earliest training window
+ * little history for a single origin the engine falls back to the naive method and says so. Which
+ * candidates a series gets, and how each is built from its dates and calendar, is the
+ * {@link CandidateRegistry}'s. Candidates with costly structural choices settle them on the earliest training window
  * ({@link Candidate#forOrigins}); the chosen candidate is then fitted afresh on all the data.
  *
  * <p><b>Intervals</b>: the model's analytic σ_h where it has one (normal, or the t distribution where the
@@ -81,16 +79,9 @@ public final class ForecastEngine {
         if (intermittent) {
             notes.add("many periods without sales: Croston's method and its Syntetos-Boylan correction are compared too");
         }
-        List<Candidate> candidates = new ArrayList<>(CandidateSet.select(m, request.customWeights(),
-                request.candidateKeys(), intermittent));
-        if (series.granularity() == dev.tallyvane.engine.series.Granularity.MONTH && (request.candidateKeys().isEmpty()
-                || request.candidateKeys().contains(TradingDayRegression.KEY))) {
-            candidates.add(new TradingDayRegression(java.time.YearMonth.from(series.periodAt(data.offset()))));
-        }
-        if (series.granularity() == Granularity.DAY && m == 7 && (request.candidateKeys().isEmpty()
-                || request.candidateKeys().contains(CalendarRegression.KEY))) {
-            candidates.add(new CalendarRegression(series.periodAt(data.offset()), series.calendar()));
-        }
+        List<Candidate> candidates = CandidateRegistry.select(new CandidateRegistry.Context(series.granularity(), m,
+                request.customWeights(), intermittent, series.periodAt(data.offset()), series.calendar()),
+                request.candidateKeys());
         int step = request.originStep(series.granularity());
         RollingOriginBacktest backtest = RollingOriginBacktest.plan(n, h, request.maxOrigins(),
                 step, MINIMUM_TRAINING);

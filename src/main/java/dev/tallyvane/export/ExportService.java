@@ -1,6 +1,6 @@
 package dev.tallyvane.export;
 
-import dev.tallyvane.accuracy.AccuracyService;
+import dev.tallyvane.accuracy.AccuracyReports;
 import dev.tallyvane.forecasting.IssuedForecasts;
 import dev.tallyvane.intake.FigureFacts;
 import dev.tallyvane.location.Location;
@@ -59,10 +59,10 @@ public class ExportService {
 
     private final LocationService locations;
     private final IssuedForecasts issued;
-    private final AccuracyService accuracy;
+    private final AccuracyReports accuracy;
     private final FigureFacts figureFacts;
 
-    ExportService(LocationService locations, IssuedForecasts issued, AccuracyService accuracy, FigureFacts figureFacts) {
+    ExportService(LocationService locations, IssuedForecasts issued, AccuracyReports accuracy, FigureFacts figureFacts) {
         this.locations = locations;
         this.issued = issued;
         this.accuracy = accuracy;
@@ -113,9 +113,9 @@ public class ExportService {
         Instant to = r.to() == null ? null : r.to().plusDays(1).atStartOfDay(java.time.ZoneOffset.UTC).toInstant();
         for (Location l : covered(r)) {
             String cur = l.getCurrency();
-            Map<AccuracyService.PointRef, AccuracyService.Scored> scores = accuracy.currentScores(l.getId());
+            Map<AccuracyReports.PointRef, AccuracyReports.Scored> scores = accuracy.currentScores(l.getId());
             issued.issuedBetween(l.getId(), from, to, p -> {
-                AccuracyService.Scored s = scores.get(new AccuracyService.PointRef(p.issuedId(), p.step()));
+                AccuracyReports.Scored s = scores.get(new AccuracyReports.PointRef(p.issuedId(), p.step()));
                 write(w, l.getCode(), p.measure(), p.issuedId(), p.issuedAt(), p.dataCutoff(), p.model(), p.step(),
                         p.period(), new Money(p.forecast(), cur), new Money(p.lo80(), cur), new Money(p.hi80(), cur),
                         new Money(p.lo95(), cur), new Money(p.hi95(), cur), s == null ? null : new Money(s.actual(), cur),
@@ -132,7 +132,7 @@ public class ExportService {
                 Column.number("value_added_vs_seasonal_naive_pct")));
         List<Location> list = r.location() == null ? locations.all() : List.of(r.location());
         for (Location l : list) {
-            for (AccuracyService.ByHorizon h : accuracy.byHorizon(l.getId(), r.measure())) {
+            for (AccuracyReports.ByHorizon h : accuracy.byHorizon(l.getId(), r.measure())) {
                 w.row(l.getCode(), r.measure(), h.step(), h.count(), new Money(h.mae(), l.getCurrency()),
                         new Money(h.rmse(), l.getCurrency()), h.mape(), h.mase(), new Money(h.bias(), l.getCurrency()),
                         h.coverage80(), h.coverage95(), h.valueAddedPct());

@@ -6,6 +6,8 @@ import dev.tallyvane.engine.ForecastResult;
 import dev.tallyvane.engine.evaluation.ErrorSample;
 import dev.tallyvane.engine.evaluation.LeaderboardEntry;
 import dev.tallyvane.engine.evaluation.Metric;
+import dev.tallyvane.engine.model.Naive;
+import dev.tallyvane.engine.model.SeasonalNaive;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.engine.series.Series;
 import dev.tallyvane.location.Location;
@@ -86,7 +88,7 @@ public class RefitService {
             result = ForecastEngine.forecast(series.get(), request);
             int m = s.seasonalPeriod() != null ? s.seasonalPeriod() : granularity.seasonalPeriod();
             benchmark = ForecastEngine.forecast(series.get(), ForecastRequest.of(horizon).withSeasonalPeriod(m)
-                    .withCandidates(Set.of(m >= 2 ? "snaive" : "naive")));
+                    .withCandidates(Set.of(m >= 2 ? SeasonalNaive.KEY : Naive.KEY)));
         } catch (IllegalArgumentException e) {
             String message = "failed: " + e.getMessage();
             log.warn("re-fit of location {} {} failed: {}", locationId, measure, e.getMessage());

@@ -1,6 +1,6 @@
 package dev.tallyvane.forecasting;
 
-import dev.tallyvane.engine.CandidateSet;
+import dev.tallyvane.engine.CandidateRegistry;
 import dev.tallyvane.engine.ForecastRequest;
 import dev.tallyvane.engine.evaluation.Metric;
 import dev.tallyvane.engine.model.WeightedMovingAverage;
@@ -77,7 +77,7 @@ public class SettingsService {
             }
         }
         Set<String> candidates = new TreeSet<>(in.candidates() == null ? List.of() : in.candidates());
-        Set<String> known = CandidateSet.knownKeys();
+        Set<String> known = CandidateRegistry.knownKeys();
         for (String c : candidates) {
             if (!known.contains(c)) {
                 problems.add(new FieldProblem(null, "candidates", "unknown candidate '" + c + "'; known: "
@@ -93,7 +93,7 @@ public class SettingsService {
                 problems.add(new FieldProblem(null, "weights", e.getMessage()));
             }
         }
-        if (candidates.contains("wma") && weights == null) {
+        if (candidates.contains(dev.tallyvane.engine.model.WeightedMovingAverage.OWNER_KEY) && weights == null) {
             problems.add(new FieldProblem(null, "weights", "the candidate 'wma' needs your weights"));
         }
         if (in.seasonalPeriod() != null && (in.seasonalPeriod() < 1 || in.seasonalPeriod() > 400)) {

@@ -1,6 +1,6 @@
 package dev.tallyvane.summary;
 
-import dev.tallyvane.accuracy.AccuracyService;
+import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.forecasting.IssuedForecasts;
 import dev.tallyvane.intake.FigureFacts;
@@ -40,15 +40,15 @@ class SummaryBuilder {
     private final SeriesReader reader;
     private final FigureFacts figures;
     private final IssuedForecasts issued;
-    private final AccuracyService accuracy;
+    private final FlagService flagService;
 
     SummaryBuilder(LocationService locations, SeriesReader reader, FigureFacts figures, IssuedForecasts issued,
-            AccuracyService accuracy) {
+            FlagService flagService) {
         this.locations = locations;
         this.reader = reader;
         this.figures = figures;
         this.issued = issued;
-        this.accuracy = accuracy;
+        this.flagService = flagService;
     }
 
     @Transactional(readOnly = true)
@@ -75,7 +75,7 @@ class SummaryBuilder {
             List<double[]> ahead = issued.newestFrom(l.getId(), measure, Granularity.WEEK.name(), nextWeek).stream()
                     .map(p -> new double[] {p.period().toEpochDay(), p.forecast(), p.lo80(), p.hi80()}).toList();
             double[] next = ahead.stream().filter(a -> (long) a[0] == nextWeek.toEpochDay()).findFirst().orElse(null);
-            List<String> flags = accuracy.attention(l.getId(), measure);
+            List<String> flags = flagService.attention(l.getId(), measure);
             LocalDate lastFigure = actual != null ? null : figures.latestPeriod(l.getId(), measure).orElse(null);
             lines.add(new WeeklySummary.Line(l.getCode(), l.getName(), l.getCurrency(), actual, forecast,
                     next == null ? null : money(next[1]), next == null ? null : money(next[2]),

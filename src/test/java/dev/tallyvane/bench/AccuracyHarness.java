@@ -1,6 +1,6 @@
 package dev.tallyvane.bench;
 
-import dev.tallyvane.engine.CandidateSet;
+import dev.tallyvane.engine.CandidateRegistry;
 import dev.tallyvane.engine.ForecastEngine;
 import dev.tallyvane.engine.ForecastRequest;
 import dev.tallyvane.engine.ForecastResult;
@@ -196,14 +196,8 @@ class AccuracyHarness {
 
     /** Every single candidate for the case, fitted alone on the whole training part (no selection). */
     static List<Candidate> singles(Case c) {
-        List<Candidate> all = new ArrayList<>(CandidateSet.all(c.m(), new double[] {0.5, 0.3, 0.2}, true));
-        if (c.train().granularity() == Granularity.MONTH) {
-            all.add(new TradingDayRegression(java.time.YearMonth.from(c.train().periodAt(0))));
-        }
-        if (c.train().granularity() == Granularity.DAY) {
-            all.add(new CalendarRegression(c.train().start(), c.train().calendar()));
-        }
-        return all;
+        return CandidateRegistry.select(new CandidateRegistry.Context(c.train().granularity(), c.m(),
+                new double[] {0.5, 0.3, 0.2}, true, c.train().start(), c.train().calendar()), java.util.Set.of());
     }
 
     @Test

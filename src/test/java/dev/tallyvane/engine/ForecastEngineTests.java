@@ -188,8 +188,9 @@ class ForecastEngineTests {
         // their origin forecasts averaged, MSE over the same actuals
         double[] y = s.values();
         int first = 48 - 3 - 5;
-        List<dev.tallyvane.engine.model.Candidate> members = singles.stream().map(e -> CandidateSet.all(12, null)
-                .stream().filter(c -> c.key().equals(e.key())).findFirst().orElseThrow()
+        List<dev.tallyvane.engine.model.Candidate> members = singles.stream().map(e -> CandidateRegistry.select(
+                        new CandidateRegistry.Context(Granularity.MONTH, 12, null, false, s.start(), s.calendar()),
+                        java.util.Set.of(e.key())).get(0)
                 .forOrigins(java.util.Arrays.copyOf(y, first), 12)).toList();
         double sum = 0;
         int count = 0;

@@ -11,7 +11,7 @@ import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.
 import dev.tallyvane.account.Role;
 import dev.tallyvane.account.TokenService;
 import dev.tallyvane.account.UserService;
-import dev.tallyvane.accuracy.AccuracyService;
+import dev.tallyvane.accuracy.AccuracyReports;
 import dev.tallyvane.app.TallyvaneApplication;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationDetails;
@@ -64,7 +64,7 @@ class ExportsIntegrationTests {
     @Autowired
     UserService users;
     @Autowired
-    AccuracyService accuracy;
+    AccuracyReports accuracy;
     @Autowired
     JdbcTemplate jdbc;
     @Autowired
@@ -171,7 +171,7 @@ class ExportsIntegrationTests {
     void accuracyAndHistoryMatchTheServiceAndTheSeparatorCanBeASemicolon() throws Exception {
         List<CSVRecord> acc = csv(download(get("/api/v1/exports/accuracy").param("location", code)
                 .param("separator", "semicolon").header("Authorization", "Bearer " + token)), ';');
-        List<AccuracyService.ByHorizon> expected = accuracy.byHorizon(location.getId(), "net_sales");
+        List<AccuracyReports.ByHorizon> expected = accuracy.byHorizon(location.getId(), "net_sales");
         assertThat(acc).hasSize(expected.size());
         for (int i = 0; i < acc.size(); i++) {
             assertThat(Integer.parseInt(acc.get(i).get("step"))).isEqualTo(expected.get(i).step());

@@ -1,6 +1,7 @@
 package dev.tallyvane.accuracy.web;
 
-import dev.tallyvane.accuracy.AccuracyService;
+import dev.tallyvane.accuracy.AccuracyReports;
+import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.DriftFlag;
 import dev.tallyvane.accuracy.UnknownFlag;
 import dev.tallyvane.location.Location;
@@ -25,11 +26,13 @@ import org.springframework.web.bind.annotation.RestController;
 class AccuracyApi {
 
     private final LocationService locations;
-    private final AccuracyService accuracy;
+    private final AccuracyReports accuracy;
+    private final FlagService flags;
 
-    AccuracyApi(LocationService locations, AccuracyService accuracy) {
+    AccuracyApi(LocationService locations, AccuracyReports accuracy, FlagService flags) {
         this.locations = locations;
         this.accuracy = accuracy;
+        this.flags = flags;
     }
 
     private Location visible(String code, ApiClient client) {
@@ -38,8 +41,8 @@ class AccuracyApi {
 
 
     /** Realized accuracy of a series. */
-    record AccuracyView(String location, String measure, List<AccuracyService.ByHorizon> byHorizon,
-            List<AccuracyService.StepOne> oneStepAhead, List<AccuracyService.Rolling> rollingSixPeriods) {
+    record AccuracyView(String location, String measure, List<AccuracyReports.ByHorizon> byHorizon,
+            List<AccuracyReports.StepOne> oneStepAhead, List<AccuracyReports.Rolling> rollingSixPeriods) {
     }
 
     @Operation(summary = "Realized accuracy of a location's forecasts, by horizon and over time")
@@ -47,14 +50,14 @@ class AccuracyApi {
     AccuracyView accuracy(@PathVariable String code, @RequestParam(defaultValue = "net_sales") String measure,
             @AuthenticationPrincipal ApiClient client) {
         Location l = visible(code, client);
-        List<AccuracyService.StepOne> stepOne = accuracy.stepOneErrors(l.getId(), measure);
+        List<AccuracyReports.StepOne> stepOne = accuracy.stepOneErrors(l.getId(), measure);
         return new AccuracyView(l.getCode(), measure, accuracy.byHorizon(l.getId(), measure), stepOne,
-                AccuracyService.rolling(stepOne, 6));
+                AccuracyReports.rolling(stepOne, 6));
     }
 
     @Operation(summary = "Realized accuracy of all locations, by horizon")
     @GetMapping("/accuracy")
-    List<AccuracyService.ByHorizon> chainAccuracy(@RequestParam(required = false) String measure,
+    List<AccuracyReports.ByHorizon> chainAccuracy(@RequestParam(required = false) String measure,
             @AuthenticationPrincipal ApiClient client) {
         client.requireAllLocations("read the accuracy of every location");
         return accuracy.byHorizon(null, measure);
@@ -68,7 +71,7 @@ class AccuracyApi {
         if (id == null && !client.allLocations()) {
             id = client.locationId();
         }
-        return accuracy.flags(id, open);
+        return flags.flags(id, open);
     }
 
     /** Acknowledging a flag. */
@@ -80,9 +83,9 @@ class AccuracyApi {
     DriftFlag acknowledge(@PathVariable long id, @RequestBody(required = false) Acknowledgement body,
             @AuthenticationPrincipal ApiClient client) {
         // scope first: to a token of one location, another location's flag and no flag look the same
-        accuracy.flag(id).filter(f -> client.allLocations() || client.locationId().equals(f.locationId()))
+        flags.flag(id).filter(f -> client.allLocations() || client.locationId().equals(f.locationId()))
                 .orElseThrow(() -> new UnknownFlag(id));
-        accuracy.acknowledge(id, client.actor(), body == null ? null : body.note(), body == null ? null : body.snoozeDays());
-        return accuracy.flag(id).orElseThrow();
+        flags.acknowledge(id, client.actor(), body == null ? null : body.note(), body == null ? null : body.snoozeDays());
+        return flags.flag(id).orElseThrow();
     }
 }

@@ -1,6 +1,6 @@
 package dev.tallyvane.accuracy.web;
 
-import dev.tallyvane.accuracy.AccuracyService;
+import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.DriftFlag;
 import dev.tallyvane.accuracy.UnknownFlag;
 import java.security.Principal;
@@ -13,9 +13,9 @@ import org.springframework.web.bind.annotation.RequestParam;
 @Controller
 class FlagsController {
 
-    private final AccuracyService accuracy;
+    private final FlagService accuracy;
 
-    FlagsController(AccuracyService accuracy) {
+    FlagsController(FlagService accuracy) {
         this.accuracy = accuracy;
     }
 

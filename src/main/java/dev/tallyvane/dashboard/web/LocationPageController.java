@@ -2,7 +2,7 @@ package dev.tallyvane.dashboard.web;
 
 import dev.tallyvane.dashboard.LocationCharts;
 import dev.tallyvane.dashboard.LocationPage;
-import dev.tallyvane.engine.CandidateSet;
+import dev.tallyvane.engine.CandidateRegistry;
 import dev.tallyvane.engine.evaluation.Metric;
 import dev.tallyvane.forecasting.RefitQueue;
 import dev.tallyvane.forecasting.SettingsService;
@@ -99,7 +99,7 @@ class LocationPageController {
         model.addAttribute("page", page.of(l));
         model.addAttribute("settingsForm", settingsForm != null ? settingsForm
                 : SettingsForm.of(settings.settings(l.getId(), FigureRules.DEFAULT_MEASURE), settings.calendar(l.getId())));
-        Map<String, String> catalogue = CandidateSet.catalogue();
+        Map<String, String> catalogue = CandidateRegistry.catalogue();
         model.addAttribute("catalogue", catalogue);
         model.addAttribute("metrics", Metric.values());
     }

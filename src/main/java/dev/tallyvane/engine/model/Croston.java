@@ -23,6 +23,9 @@ import java.util.Map;
  */
 public final class Croston implements Candidate {
 
+    public static final String KEY = "croston";
+    public static final String SBA_KEY = "sba";
+
     public static final double ALPHA = 0.1;
 
     private final boolean sba;
@@ -50,7 +53,7 @@ public final class Croston implements Candidate {
 
     @Override
     public String key() {
-        return sba ? "sba" : "croston";
+        return sba ? SBA_KEY : KEY;
     }
 
     @Override

@@ -13,9 +13,11 @@ import java.util.Map;
  */
 public final class Drift implements Candidate {
 
+    public static final String KEY = "drift";
+
     @Override
     public String key() {
-        return "drift";
+        return KEY;
     }
 
     @Override

@@ -44,6 +44,8 @@ import dev.tallyvane.engine.math.LeastSquares;
  */
 public final class ExponentialSmoothing implements Candidate {
 
+    public static final String KEY = "ets";
+
     private static final double EPS = 1e-4;
     private static final int MAX_SEASON = 24;
 
@@ -85,7 +87,7 @@ public final class ExponentialSmoothing implements Candidate {
 
     @Override
     public String key() {
-        return fixedForm == null ? "ets" : "ets-" + fixedForm.label();
+        return fixedForm == null ? KEY : KEY + "-" + fixedForm.label();
     }
 
     @Override

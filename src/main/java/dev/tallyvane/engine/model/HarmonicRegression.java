@@ -19,6 +19,8 @@ import java.util.function.IntFunction;
  */
 public final class HarmonicRegression implements Candidate {
 
+    public static final String KEY = "harmonic";
+
     private final int seasonalPeriod;
     private final double year;
     private final boolean weekdays;
@@ -52,7 +54,7 @@ public final class HarmonicRegression implements Candidate {
 
     @Override
     public String key() {
-        return "harmonic";
+        return KEY;
     }
 
     @Override

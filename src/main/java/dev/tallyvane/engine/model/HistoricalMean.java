@@ -13,9 +13,11 @@ import java.util.Map;
  */
 public final class HistoricalMean implements Candidate {
 
+    public static final String KEY = "mean";
+
     @Override
     public String key() {
-        return "mean";
+        return KEY;
     }
 
     @Override

@@ -16,6 +16,11 @@ import java.util.Map;
  */
 public final class MovingAverage implements Candidate {
 
+    /** The key of the moving average of length k. */
+    public static String key(int k) {
+        return "ma" + k;
+    }
+
     private final int k;
 
     public MovingAverage(int k) {
@@ -27,7 +32,7 @@ public final class MovingAverage implements Candidate {
 
     @Override
     public String key() {
-        return "ma" + k;
+        return key(k);
     }
 
     @Override

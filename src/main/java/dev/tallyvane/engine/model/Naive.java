@@ -13,9 +13,11 @@ import java.util.Map;
  */
 public final class Naive implements Candidate {
 
+    public static final String KEY = "naive";
+
     @Override
     public String key() {
-        return "naive";
+        return KEY;
     }
 
     @Override

@@ -25,6 +25,11 @@ import java.util.Map;
  */
 public final class PolynomialTrend implements Candidate {
 
+    /** The key of the trend of a degree, with seasonal dummies or not. */
+    public static String key(int degree, boolean seasonal) {
+        return "poly" + degree + (seasonal ? "s" : "");
+    }
+
     private final int degree;
     private final boolean seasonal;
     /** Point forecasts only, by the within-season route below (a backtest needs no intervals). */
@@ -57,7 +62,7 @@ public final class PolynomialTrend implements Candidate {
 
     @Override
     public String key() {
-        return "poly" + degree + (seasonal ? "s" : "");
+        return key(degree, seasonal);
     }
 
     @Override

@@ -13,9 +13,11 @@ import java.util.Map;
  */
 public final class SeasonalNaive implements Candidate {
 
+    public static final String KEY = "snaive";
+
     @Override
     public String key() {
-        return "snaive";
+        return KEY;
     }
 
     @Override

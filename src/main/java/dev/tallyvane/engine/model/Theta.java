@@ -20,9 +20,11 @@ import java.util.Map;
  */
 public final class Theta implements Candidate {
 
+    public static final String KEY = "theta";
+
     @Override
     public String key() {
-        return "theta";
+        return KEY;
     }
 
     @Override

@@ -26,6 +26,14 @@ import java.util.Locale;
  */
 public final class WeightedMovingAverage implements Candidate {
 
+    /** The key of the moving average with the owner's weights. */
+    public static final String OWNER_KEY = "wma";
+
+    /** The key of the fitted weighted moving average over k lags. */
+    public static String fittedKey(int k) {
+        return "wmafit" + k;
+    }
+
     private final double[] userWeights;
     private final int fittedLength;
     /** Weights fitted on a backtest's earliest window, and its length (see {@link #forOrigins}). */
@@ -95,7 +103,7 @@ public final class WeightedMovingAverage implements Candidate {
 
     @Override
     public String key() {
-        return userWeights != null ? "wma" : "wmafit" + fittedLength;
+        return userWeights != null ? OWNER_KEY : fittedKey(fittedLength);
     }
 
     @Override

@@ -17,9 +17,8 @@ import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 
 /**
- * Turns an uploaded table into figures. The layout: a header row with the columns
- * {@code location}, {@code period} (or {@code date}), {@code amount} and optionally {@code measure}
- * (default net_sales), in any order. Periods: yyyy-MM-dd, dd/MM/yyyy or MM/dd/yyyy (also with
+ * Turns an uploaded table into figures. The layout: a header row with the columns of
+ * {@link UploadColumn} (location, period or date, amount, optionally measure), in any order. Periods: yyyy-MM-dd, dd/MM/yyyy or MM/dd/yyyy (also with
  * '.' or '-'), yyyy-MM or MM/yyyy for months, yyyy-Www for ISO weeks, or date cells. Amounts:
  * numbers, or text with currency symbols, spaces and thousands marks. Every problem names its row
  * and field; when day/month order or the decimal mark cannot be told from the file, the parse says
@@ -27,7 +26,6 @@ import java.util.regex.Pattern;
  */
 final class UploadParser {
 
-    private static final Set<String> KNOWN = Set.of("location", "period", "date", "amount", "measure");
     private static final Pattern DMY = Pattern.compile("(\\d{1,2})[./-](\\d{1,2})[./-](\\d{4})");
     private static final Pattern MY = Pattern.compile("(\\d{1,2})[./-](\\d{4})");
     private static final Pattern NOISE = Pattern.compile("[\\s\\u00A0\\u202F'’]|[^\\d.,()+\\-]");
@@ -93,21 +91,9 @@ final class UploadParser {
             boolean needsNumberStyle, UploadOptions usedOptions) {
     }
 
-    static Parsed parse(RawTable table, UploadOptions options) {
-        String periodColumn = table.header().contains("period") ? "period" : "date";
-        List<String> missing = new ArrayList<>();
-        for (String required : List.of("location", periodColumn, "amount")) {
-            if (!table.header().contains(required)) {
-                missing.add(required.equals("date") ? "period" : required);
-            }
-        }
-        List<String> unknown = table.header().stream().filter(h -> !KNOWN.contains(h)).toList();
-        if (!missing.isEmpty() || !unknown.isEmpty()) {
-            throw new UploadRejected("The columns do not fit: the file needs the columns location, period, amount "
-                    + "(and optionally measure)" + (missing.isEmpty() ? "" : "; missing: " + String.join(", ", missing))
-                    + (unknown.isEmpty() ? "" : "; not understood: " + String.join(", ", unknown))
-                    + ". Download the template to see the layout.");
-        }
+    static Parsed parse(RawTable file, UploadOptions options) {
+        RawTable table = canonical(file);
+        String periodColumn = UploadColumn.PERIOD.label();
         if (table.rows().isEmpty()) {
             throw new UploadRejected("The file has a header but no figures.");
         }
@@ -135,7 +121,7 @@ final class UploadParser {
             for (Map.Entry<String, RawValue> cell : row.cells().entrySet()) {
                 String unprintable = cell.getValue() instanceof RawValue.Text t ? FigureRules.unprintable(t.value()) : null;
                 if (unprintable != null) {
-                    problems.add(new FieldProblem(n, cell.getKey().equals("date") ? "period" : cell.getKey(),
+                    problems.add(new FieldProblem(n, cell.getKey(),
                             "the cell " + unprintable));
                     unprintableCell = true;
                 }
@@ -143,11 +129,12 @@ final class UploadParser {
             if (unprintableCell) {
                 continue;
             }
-            String location = text(row, "location", n, problems);
-            String measure = row.cells().containsKey("measure") ? text(row, "measure", n, problems)
+            String location = text(row, UploadColumn.LOCATION.label(), n, problems);
+            String measure = row.cells().containsKey(UploadColumn.MEASURE.label())
+                    ? text(row, UploadColumn.MEASURE.label(), n, problems)
                     : FigureRules.DEFAULT_MEASURE;
             Period period = needsOrder ? null : period(row.cells().get(periodColumn), order, n, problems);
-            BigDecimal amount = needsStyle ? null : amount(row.cells().get("amount"), style, n, problems);
+            BigDecimal amount = needsStyle ? null : amount(row.cells().get(UploadColumn.AMOUNT.label()), style, n, problems);
             if (problems.size() == before && !needsOrder && !needsStyle) {
                 figures.add(new FigureInput(n, LocationService.normaliseCode(location),
                         measure == null || measure.isBlank() ? FigureRules.DEFAULT_MEASURE : measure.trim(),
@@ -159,6 +146,42 @@ final class UploadParser {
         return new Parsed(figures, problems, table.rows().size(), needsOrder, needsStyle,
                 new UploadOptions(order == null ? UploadOptions.DateOrder.AUTO : order,
                         style == null ? UploadOptions.NumberStyle.AUTO : style));
+    }
+
+    /**
+     * The table with every header cell named by its column's label (an alias such as "date" becomes
+     * "period"); refused when a required column is missing, a header names no column, or two name the same.
+     */
+    private static RawTable canonical(RawTable table) {
+        Map<String, String> rename = new java.util.LinkedHashMap<>();
+        List<String> unknown = new ArrayList<>();
+        List<String> twice = new ArrayList<>();
+        for (String h : table.header()) {
+            java.util.Optional<UploadColumn> column = UploadColumn.named(h);
+            if (column.isEmpty()) {
+                unknown.add(h);
+            } else if (rename.containsValue(column.get().label())) {
+                twice.add(h);
+            } else {
+                rename.put(h, column.get().label());
+            }
+        }
+        List<String> missing = java.util.Arrays.stream(UploadColumn.values())
+                .filter(c -> c.required() && !rename.containsValue(c.label())).map(UploadColumn::label).toList();
+        if (!missing.isEmpty() || !unknown.isEmpty() || !twice.isEmpty()) {
+            throw new UploadRejected("The columns do not fit: the file needs the columns " + UploadColumn.layout()
+                    + (missing.isEmpty() ? "" : "; missing: " + String.join(", ", missing))
+                    + (unknown.isEmpty() ? "" : "; not understood: " + String.join(", ", unknown))
+                    + (twice.isEmpty() ? "" : "; given twice: " + String.join(", ", twice))
+                    + ". Download the template to see the layout.");
+        }
+        List<RawTable.Row> rows = new ArrayList<>(table.rows().size());
+        for (RawTable.Row row : table.rows()) {
+            Map<String, RawValue> cells = new java.util.LinkedHashMap<>();
+            row.cells().forEach((h, v) -> cells.put(rename.getOrDefault(h, h), v));
+            rows.add(new RawTable.Row(row.number(), cells));
+        }
+        return new RawTable(table.header().stream().map(rename::get).toList(), rows);
     }
 
     private record Period(Granularity granularity, LocalDate start) {
@@ -317,7 +340,7 @@ final class UploadParser {
         boolean comma = false;
         boolean point = false;
         for (RawTable.Row row : table.rows()) {
-            if (row.cells().get("amount") instanceof RawValue.Text t) {
+            if (row.cells().get(UploadColumn.AMOUNT.label()) instanceof RawValue.Text t) {
                 String s = NOISE.matcher(t.value().trim()).replaceAll("").replace("(", "").replace(")", "");
                 int lastComma = s.lastIndexOf(',');
                 int lastPoint = s.lastIndexOf('.');

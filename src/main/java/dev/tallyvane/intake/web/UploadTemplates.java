@@ -1,27 +1,45 @@
 package dev.tallyvane.intake.web;
 
+import dev.tallyvane.intake.upload.UploadColumn;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.UncheckedIOException;
+import java.math.BigDecimal;
 import java.nio.charset.StandardCharsets;
 import java.time.LocalDate;
+import java.util.stream.Collectors;
+import java.util.stream.Stream;
+import org.apache.poi.ss.usermodel.Cell;
 import org.apache.poi.ss.usermodel.CellStyle;
 import org.apache.poi.ss.usermodel.Row;
 import org.apache.poi.ss.usermodel.Sheet;
 import org.apache.poi.xssf.usermodel.XSSFWorkbook;
 
-/** The downloadable upload templates: the column layout with two example rows. */
+/** The downloadable upload templates: the columns of {@link UploadColumn} with their example rows. */
 final class UploadTemplates {
 
-    static final String[] HEADER = {"location", "period", "amount", "measure"};
+    private static final UploadColumn[] COLUMNS = UploadColumn.values();
 
     private UploadTemplates() {
     }
 
+    private static int exampleRows() {
+        return COLUMNS[0].examples().size();
+    }
+
     static byte[] csv() {
-        return ("location,period,amount,measure\n"
-                + "HARBOUR,2026-11-01,1234.50,net_sales\n"
-                + "HARBOUR,2026-11-02,987.00,net_sales\n").getBytes(StandardCharsets.UTF_8);
+        StringBuilder sb = new StringBuilder(Stream.of(COLUMNS).map(UploadColumn::label).collect(Collectors.joining(",")))
+                .append('\n');
+        for (int r = 0; r < exampleRows(); r++) {
+            int row = r;
+            sb.append(Stream.of(COLUMNS).map(c -> text(c.examples().get(row))).collect(Collectors.joining(",")))
+                    .append('\n');
+        }
+        return sb.toString().getBytes(StandardCharsets.UTF_8);
+    }
+
+    private static String text(Object example) {
+        return example instanceof BigDecimal b ? b.toPlainString() : example.toString();
     }
 
     static byte[] xlsx() {
@@ -32,22 +50,26 @@ final class UploadTemplates {
             CellStyle money = wb.createCellStyle();
             money.setDataFormat(wb.createDataFormat().getFormat("#,##0.00"));
             Row header = sheet.createRow(0);
-            for (int i = 0; i < HEADER.length; i++) {
-                header.createCell(i).setCellValue(HEADER[i]);
+            for (int i = 0; i < COLUMNS.length; i++) {
+                header.createCell(i).setCellValue(COLUMNS[i].label());
             }
-            Object[][] examples = {{"HARBOUR", LocalDate.of(2026, 11, 1), 1234.50}, {"HARBOUR", LocalDate.of(2026, 11, 2), 987.0}};
-            for (int r = 0; r < examples.length; r++) {
+            for (int r = 0; r < exampleRows(); r++) {
                 Row row = sheet.createRow(r + 1);
-                row.createCell(0).setCellValue((String) examples[r][0]);
-                var d = row.createCell(1);
-                d.setCellValue((LocalDate) examples[r][1]);
-                d.setCellStyle(date);
-                var a = row.createCell(2);
-                a.setCellValue((Double) examples[r][2]);
-                a.setCellStyle(money);
-                row.createCell(3).setCellValue("net_sales");
+                for (int i = 0; i < COLUMNS.length; i++) {
+                    Object example = COLUMNS[i].examples().get(r);
+                    Cell cell = row.createCell(i);
+                    if (example instanceof LocalDate d) {
+                        cell.setCellValue(d);
+                        cell.setCellStyle(date);
+                    } else if (example instanceof BigDecimal b) {
+                        cell.setCellValue(b.doubleValue());
+                        cell.setCellStyle(money);
+                    } else {
+                        cell.setCellValue(example.toString());
+                    }
+                }
             }
-            for (int i = 0; i < HEADER.length; i++) {
+            for (int i = 0; i < COLUMNS.length; i++) {
                 sheet.setColumnWidth(i, 14 * 256);
             }
             sheet.createFreezePane(0, 1);

@@ -37,6 +37,7 @@ class UploadsController {
     @GetMapping("/uploads")
     String page(Model model) {
         model.addAttribute("history", uploads.history(50));
+        model.addAttribute("columns", dev.tallyvane.intake.upload.UploadColumn.values());
         model.addAttribute("maxBytes", maxBytes);
         return "intake/uploads";
     }

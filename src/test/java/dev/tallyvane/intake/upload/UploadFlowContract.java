@@ -22,6 +22,7 @@ import dev.tallyvane.support.Users;
 import dev.tallyvane.support.Workbooks;
 import java.nio.charset.StandardCharsets;
 import java.time.LocalDate;
+import java.util.List;
 import java.util.UUID;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
@@ -203,8 +204,18 @@ abstract class UploadFlowContract {
                 .andExpect(content().string(containsString("location,period,amount,measure")));
         byte[] xlsx = mvc.perform(get("/uploads/template.xlsx").with(bookkeeper)).andExpect(status().isOk())
                 .andReturn().getResponse().getContentAsByteArray();
-        // the template itself is a valid upload
-        RawTable table = XlsxTableReader.read(xlsx, 10);
-        assertThat(UploadParser.parse(table, UploadOptions.AUTO).problems()).isEmpty();
+        // each template is itself a valid upload of its example rows, one column of UploadColumn each
+        for (RawTable table : List.of(XlsxTableReader.read(xlsx, 10), CsvTableReader.read(mvc.perform(
+                get("/uploads/template.csv").with(bookkeeper)).andReturn().getResponse().getContentAsByteArray(), 10))) {
+            assertThat(table.header()).containsExactly(java.util.Arrays.stream(UploadColumn.values())
+                    .map(UploadColumn::label).toArray(String[]::new));
+            UploadParser.Parsed parsed = UploadParser.parse(table, UploadOptions.AUTO);
+            assertThat(parsed.problems()).isEmpty();
+            assertThat(parsed.figures()).hasSize(UploadColumn.LOCATION.examples().size())
+                    .allSatisfy(f -> assertThat(f.locationCode()).isEqualTo("HARBOUR"));
+        }
+        // the upload page lists the columns from the same specification
+        mvc.perform(get("/uploads").with(bookkeeper)).andExpect(content().string(containsString("(or date)")))
+                .andExpect(content().string(containsString("thousands marks are fine")));
     }
 }

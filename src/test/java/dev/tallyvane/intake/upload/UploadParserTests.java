@@ -28,6 +28,19 @@ class UploadParserTests {
     }
 
     @Test
+    void columnsAreKnownByTheirAliasesInAnyCaseAndRefusedWhenGivenTwice() {
+        UploadParser.Parsed p = csv("Location,DATE,Amount\nA,2026-11-01,10\n", UploadOptions.AUTO);
+        assertThat(p.problems()).isEmpty();
+        assertThat(p.figures().get(0).periodStart()).isEqualTo(LocalDate.of(2026, 11, 1));
+        assertThatThrownBy(() -> csv("location,period,date,amount\nA,2026-11-01,2026-11-01,10\n", UploadOptions.AUTO))
+                .isInstanceOf(UploadRejected.class).hasMessageContaining("given twice: date")
+                .hasMessageContaining("location, period, amount (and optionally measure)");
+        assertThatThrownBy(() -> csv("location,amount,shop\nA,10,x\n", UploadOptions.AUTO))
+                .isInstanceOf(UploadRejected.class).hasMessageContaining("missing: period")
+                .hasMessageContaining("not understood: shop");
+    }
+
+    @Test
     void decimalCommaWithSemicolonsAndCurrencySymbolsIsUnderstood() {
         UploadParser.Parsed p = csv("location;period;amount\nA;30.11.2026;1.234,56 €\nA;29.11.2026;\"€ 987,5\"\n",
                 UploadOptions.AUTO);

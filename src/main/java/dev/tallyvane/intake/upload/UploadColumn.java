@@ -1,0 +1,77 @@
+package dev.tallyvane.intake.upload;
+
+import dev.tallyvane.intake.FigureRules;
+import java.math.BigDecimal;
+import java.time.LocalDate;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Locale;
+import java.util.Optional;
+import java.util.stream.Collectors;
+
+/**
+ * The columns of an upload, each specified once: its name, the other names it is known by, whether
+ * a file must have it, what it holds, and the example the templates show. The parser, the
+ * templates, the upload page and the messages about columns all read this list.
+ */
+public enum UploadColumn {
+
+    LOCATION("location", List.of(), true, "the location's code, e.g. HARBOUR", List.of("HARBOUR", "HARBOUR")),
+    PERIOD("period", List.of("date"), true, "a day (2026-11-30 or 30/11/2026), an ISO week (2026-W48) or a month "
+            + "(2026-11)", List.of(LocalDate.of(2026, 11, 1), LocalDate.of(2026, 11, 2))),
+    AMOUNT("amount", List.of(), true, "the figure, with at most the currency's decimals; currency signs and "
+            + "thousands marks are fine", List.of(new BigDecimal("1234.50"), new BigDecimal("987.00"))),
+    MEASURE("measure", List.of(), false, "what the figure counts (default " + FigureRules.DEFAULT_MEASURE + ")",
+            List.of(FigureRules.DEFAULT_MEASURE, FigureRules.DEFAULT_MEASURE));
+
+    private final String label;
+    private final List<String> aliases;
+    private final boolean required;
+    private final String description;
+    private final List<Object> examples;
+
+    UploadColumn(String label, List<String> aliases, boolean required, String description, List<Object> examples) {
+        this.label = label;
+        this.aliases = aliases;
+        this.required = required;
+        this.description = description;
+        this.examples = examples;
+    }
+
+    /** The name the templates use and the messages say. */
+    public String label() {
+        return label;
+    }
+
+    public List<String> aliases() {
+        return aliases;
+    }
+
+    public boolean required() {
+        return required;
+    }
+
+    public String description() {
+        return description;
+    }
+
+    /** The template's example values, one per example row (text, a date or an amount). */
+    public List<Object> examples() {
+        return examples;
+    }
+
+    /** The column a header cell names (its label or an alias, in any case), if any. */
+    public static Optional<UploadColumn> named(String header) {
+        String h = header == null ? "" : header.trim().toLowerCase(Locale.ROOT);
+        return Arrays.stream(values()).filter(c -> c.label.equals(h) || c.aliases.contains(h)).findFirst();
+    }
+
+    /** "location, period, amount (and optionally measure)", as messages say it. */
+    public static String layout() {
+        String required = Arrays.stream(values()).filter(UploadColumn::required).map(UploadColumn::label)
+                .collect(Collectors.joining(", "));
+        String optional = Arrays.stream(values()).filter(c -> !c.required).map(UploadColumn::label)
+                .collect(Collectors.joining(", "));
+        return optional.isEmpty() ? required : required + " (and optionally " + optional + ")";
+    }
+}
