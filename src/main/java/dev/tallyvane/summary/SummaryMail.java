@@ -74,7 +74,7 @@ class SummaryMail {
         context.setVariable("unsubscribe", unsubscribeUrl);
         context.setVariable("chartSrc", chartSrc);
         context.setVariable("subject", subject);
-        String html = templates.process("mail/weekly", context);
+        String html = templates.process("summary/weekly-mail", context);
         return new Rendered(subject, text(summary, fmt, recipientName, unsubscribeUrl), html,
                 SummaryChart.png(summary.chart()));
     }

@@ -48,7 +48,7 @@ class LocationPageController {
     String detail(@PathVariable String code, Model model) {
         Location l = locations.byCode(code);
         fill(model, l, details(l), null);
-        return "locations/detail";
+        return "dashboard/location";
     }
 
     @GetMapping(value = "/locations/{code}/charts.json", produces = "application/json")
@@ -66,7 +66,7 @@ class LocationPageController {
             Location l = locations.byCode(code);
             fill(model, l, form, null);
             model.addAttribute("problems", e.problems());
-            return "locations/detail";
+            return "dashboard/location";
         }
     }
 
@@ -81,7 +81,7 @@ class LocationPageController {
         } catch (InvalidRequest e) {
             fill(model, l, details(l), form);
             model.addAttribute("settingsProblems", e.problems());
-            return "locations/detail";
+            return "dashboard/location";
         }
         queue.refitNow(l.getId());
         redirect.addFlashAttribute("settingsSaved", true);

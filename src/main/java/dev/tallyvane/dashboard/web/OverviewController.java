@@ -31,6 +31,6 @@ class OverviewController {
         model.addAttribute("shows", Overview.Show.values());
         model.addAttribute("sorts", Overview.Sort.values());
         model.addAttribute("refitStatus", queue.status());
-        return "locations/list";
+        return "dashboard/overview";
     }
 }

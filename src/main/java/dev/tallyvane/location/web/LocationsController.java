@@ -24,7 +24,7 @@ class LocationsController {
     @GetMapping("/locations/new")
     String newForm(Model model) {
         model.addAttribute("form", new LocationForm("", "", "Europe/Berlin", "EUR", null, "ACTIVE"));
-        return "locations/form";
+        return "location/form";
     }
 
     @PostMapping("/locations")
@@ -38,6 +38,6 @@ class LocationsController {
             model.addAttribute("problems", List.of(new InvalidRequest.FieldProblem(null, "code", e.getMessage())));
         }
         model.addAttribute("form", form);
-        return "locations/form";
+        return "location/form";
     }
 }
