@@ -111,6 +111,7 @@ final class UploadParser {
         }
         List<FigureInput> figures = new ArrayList<>();
         List<FieldProblem> problems = new ArrayList<>();
+        Reading how = new Reading(needsOrder ? null : order, needsStyle ? null : style);
         for (RawTable.Row row : table.rows()) {
             int n = row.number();
             int before = problems.size();
@@ -129,16 +130,18 @@ final class UploadParser {
             if (unprintableCell) {
                 continue;
             }
-            String location = text(row, UploadColumn.LOCATION.label(), n, problems);
-            String measure = row.cells().containsKey(UploadColumn.MEASURE.label())
-                    ? text(row, UploadColumn.MEASURE.label(), n, problems)
-                    : FigureRules.DEFAULT_MEASURE;
-            Period period = needsOrder ? null : period(row.cells().get(periodColumn), order, n, problems);
-            BigDecimal amount = needsStyle ? null : amount(row.cells().get(UploadColumn.AMOUNT.label()), style, n, problems);
+            Map<UploadColumn, Object> values = new EnumMap<>(UploadColumn.class);
+            for (UploadColumn column : UploadColumn.values()) {
+                if (row.cells().containsKey(column.label()) || column.required()) {
+                    values.put(column, column.parser().read(row.cells().get(column.label()), how, n, problems));
+                }
+            }
             if (problems.size() == before && !needsOrder && !needsStyle) {
-                figures.add(new FigureInput(n, LocationService.normaliseCode(location),
-                        measure == null || measure.isBlank() ? FigureRules.DEFAULT_MEASURE : measure.trim(),
-                        period.granularity(), period.start(), amount));
+                Period period = (Period) values.get(UploadColumn.PERIOD);
+                String measure = (String) values.get(UploadColumn.MEASURE);
+                figures.add(new FigureInput(n, LocationService.normaliseCode((String) values.get(UploadColumn.LOCATION)),
+                        measure == null ? FigureRules.DEFAULT_MEASURE : measure, period.granularity(), period.start(),
+                        (BigDecimal) values.get(UploadColumn.AMOUNT)));
             }
         }
         mixedGranularities(figures, problems);
@@ -184,11 +187,38 @@ final class UploadParser {
         return new RawTable(table.header().stream().map(rename::get).toList(), rows);
     }
 
-    private record Period(Granularity granularity, LocalDate start) {
+    /**
+     * How the file's dates and amounts are read (null while the user must still say).
+     */
+    record Reading(UploadOptions.DateOrder order, UploadOptions.NumberStyle style) {
     }
 
-    private static String text(RawTable.Row row, String column, int n, List<FieldProblem> problems) {
-        RawValue v = row.cells().get(column);
+    /** A cell's value for the column's place in a figure, or null with a problem added. */
+    @FunctionalInterface
+    interface CellParser {
+        Object read(RawValue cell, Reading how, int row, List<FieldProblem> problems);
+    }
+
+    static Object location(RawValue cell, Reading how, int row, List<FieldProblem> problems) {
+        return text(cell, UploadColumn.LOCATION.label(), row, problems);
+    }
+
+    static Object measure(RawValue cell, Reading how, int row, List<FieldProblem> problems) {
+        return text(cell, UploadColumn.MEASURE.label(), row, problems);
+    }
+
+    static Object period(RawValue cell, Reading how, int row, List<FieldProblem> problems) {
+        return how.order() == null ? null : period(cell, how.order(), row, problems);
+    }
+
+    static Object amount(RawValue cell, Reading how, int row, List<FieldProblem> problems) {
+        return how.style() == null ? null : amount(cell, how.style(), row, problems);
+    }
+
+    record Period(Granularity granularity, LocalDate start) {
+    }
+
+    private static String text(RawValue v, String column, int n, List<FieldProblem> problems) {
         if (v instanceof RawValue.Text t && !t.value().isBlank()) {
             return t.value().trim();
         }
