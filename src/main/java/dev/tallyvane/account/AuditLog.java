@@ -1,5 +1,6 @@
 package dev.tallyvane.account;
 
+import dev.tallyvane.account.internal.AuditEventRepository;
 import java.time.Clock;
 import java.util.List;
 import org.springframework.data.domain.PageRequest;

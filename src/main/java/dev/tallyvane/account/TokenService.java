@@ -1,5 +1,6 @@
 package dev.tallyvane.account;
 
+import dev.tallyvane.account.internal.ApiTokenRepository;
 import dev.tallyvane.system.ApiClient;
 import dev.tallyvane.system.InvalidRequest;
 import java.nio.charset.StandardCharsets;

@@ -1,15 +1,16 @@
 package dev.tallyvane.account;
 
+import dev.tallyvane.account.internal.AppUserRepository;
 import dev.tallyvane.system.DomainProblem;
 import dev.tallyvane.system.InvalidRequest;
 import dev.tallyvane.system.InvalidRequest.FieldProblem;
 import java.time.Clock;
 import java.time.Duration;
+import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.regex.Pattern;
-import java.time.Instant;
 import org.springframework.dao.DuplicateKeyException;
 import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.security.authentication.DisabledException;

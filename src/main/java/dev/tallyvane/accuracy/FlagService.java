@@ -1,5 +1,6 @@
 package dev.tallyvane.accuracy;
 
+import dev.tallyvane.accuracy.internal.FlagStore;
 import java.time.Clock;
 import java.time.Instant;
 import java.util.ArrayList;

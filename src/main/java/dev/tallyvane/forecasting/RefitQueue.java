@@ -6,6 +6,8 @@ import com.github.kagkarlsson.scheduler.task.helper.CustomTask;
 import com.github.kagkarlsson.scheduler.task.helper.RecurringTask;
 import com.github.kagkarlsson.scheduler.task.helper.Tasks;
 import com.github.kagkarlsson.scheduler.task.schedule.Schedules;
+import dev.tallyvane.forecasting.internal.IssuedForecastStore;
+import dev.tallyvane.forecasting.internal.SeriesStateStore;
 import dev.tallyvane.intake.FiguresRecorded;
 import dev.tallyvane.system.Jobs;
 import java.time.Clock;
@@ -18,8 +20,8 @@ import org.slf4j.LoggerFactory;
 import org.springframework.beans.factory.ObjectProvider;
 import org.springframework.context.annotation.Bean;
 import org.springframework.context.annotation.Configuration;
-import org.springframework.stereotype.Service;
 import org.springframework.modulith.events.ApplicationModuleListener;
+import org.springframework.stereotype.Service;
 import org.springframework.transaction.event.TransactionPhase;
 import org.springframework.transaction.event.TransactionalEventListener;
 

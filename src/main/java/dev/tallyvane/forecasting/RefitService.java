@@ -10,6 +10,8 @@ import dev.tallyvane.engine.model.Naive;
 import dev.tallyvane.engine.model.SeasonalNaive;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.engine.series.Series;
+import dev.tallyvane.forecasting.internal.IssuedForecastStore;
+import dev.tallyvane.forecasting.internal.SeriesStateStore;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
 import java.time.Clock;

@@ -1,5 +1,6 @@
 package dev.tallyvane.intake;
 
+import dev.tallyvane.intake.internal.IdempotencyStore;
 import dev.tallyvane.system.DomainProblem;
 import java.util.List;
 import java.util.Optional;

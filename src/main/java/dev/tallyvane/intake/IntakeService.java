@@ -1,6 +1,7 @@
 package dev.tallyvane.intake;
 
 import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.intake.internal.FigureStore;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
 import dev.tallyvane.system.InvalidRequest;

@@ -1,5 +1,6 @@
 package dev.tallyvane.location;
 
+import dev.tallyvane.location.internal.LocationRepository;
 import dev.tallyvane.system.InvalidRequest;
 import dev.tallyvane.system.InvalidRequest.FieldProblem;
 import java.time.Clock;

@@ -1,5 +1,6 @@
 package dev.tallyvane.accuracy;
 
+import dev.tallyvane.accuracy.internal.FlagStore;
 import dev.tallyvane.accuracy.signal.Signal;
 import java.time.Instant;
 import java.time.LocalDate;

@@ -1,4 +1,5 @@
-package dev.tallyvane.intake;
+package dev.tallyvane.intake.internal;
+
 
 import java.sql.Timestamp;
 import java.time.Clock;
@@ -8,7 +9,7 @@ import org.springframework.stereotype.Repository;
 
 /** Remembers the answer to each (principal, Idempotency-Key) so a retried request is answered again, not redone. */
 @Repository
-class IdempotencyStore {
+public class IdempotencyStore {
 
     private final JdbcTemplate jdbc;
     private final Clock clock;
@@ -18,15 +19,15 @@ class IdempotencyStore {
         this.clock = clock;
     }
 
-    record Stored(String requestHash, String responseBody) {
+    public record Stored(String requestHash, String responseBody) {
     }
 
-    Optional<Stored> find(String principal, String key) {
+    public Optional<Stored> find(String principal, String key) {
         return jdbc.query("select request_hash, response_body from idempotency_record where principal = ? and idem_key = ?",
                 (rs, i) -> new Stored(rs.getString(1), rs.getString(2)), principal, key).stream().findFirst();
     }
 
-    void save(String principal, String key, String requestHash, String responseBody) {
+    public void save(String principal, String key, String requestHash, String responseBody) {
         jdbc.update("insert into idempotency_record (principal, idem_key, request_hash, response_body, created_at) "
                 + "values (?, ?, ?, ?, ?)", principal, key, requestHash, responseBody, Timestamp.from(clock.instant()));
     }

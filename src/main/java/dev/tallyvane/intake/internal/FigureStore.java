@@ -1,6 +1,8 @@
-package dev.tallyvane.intake;
+package dev.tallyvane.intake.internal;
 
 import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.intake.FigureKey;
+import dev.tallyvane.intake.Submitter;
 import java.io.IOException;
 import java.io.StringReader;
 import java.math.BigDecimal;
@@ -19,9 +21,9 @@ import org.postgresql.PGConnection;
 import org.postgresql.copy.CopyManager;
 import org.springframework.dao.DataAccessResourceFailureException;
 import org.springframework.jdbc.core.JdbcTemplate;
-import org.springframework.jdbc.datasource.DataSourceUtils;
 import org.springframework.jdbc.core.namedparam.MapSqlParameterSource;
 import org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate;
+import org.springframework.jdbc.datasource.DataSourceUtils;
 import org.springframework.stereotype.Repository;
 
 /**
@@ -29,7 +31,7 @@ import org.springframework.stereotype.Repository;
  * (row-by-row JPA would be far too slow for a 100,000-figure post).
  */
 @Repository
-class FigureStore {
+public class FigureStore {
 
     private static final int BATCH = 2_000;
 
@@ -42,11 +44,11 @@ class FigureStore {
     }
 
     /** The current value of a figure: the revision row's id and amount. */
-    record Current(long revisionId, BigDecimal amount) {
+    public record Current(long revisionId, BigDecimal amount) {
     }
 
     /** Current values of one measure and granularity for these locations between two periods. */
-    Map<FigureKey, Current> current(Collection<Long> locationIds, String measure, Granularity granularity,
+    public Map<FigureKey, Current> current(Collection<Long> locationIds, String measure, Granularity granularity,
             LocalDate from, LocalDate to) {
         Map<FigureKey, Current> out = new HashMap<>();
         List<Long> ids = new ArrayList<>(locationIds);
@@ -65,11 +67,11 @@ class FigureStore {
     }
 
     /** A value to write. */
-    record NewRevision(FigureKey key, BigDecimal amount) {
+    public record NewRevision(FigureKey key, BigDecimal amount) {
     }
 
     /** Marks the given revisions as superseded at {@code at}. */
-    void supersede(List<Long> revisionIds, Instant at) {
+    public void supersede(List<Long> revisionIds, Instant at) {
         Timestamp ts = Timestamp.from(at);
         for (int i = 0; i < revisionIds.size(); i += BATCH) {
             List<Long> chunk = revisionIds.subList(i, Math.min(revisionIds.size(), i + BATCH));
@@ -85,7 +87,7 @@ class FigureStore {
      * Inserts new current values: with PostgreSQL's COPY when the connection is PostgreSQL's and the
      * batch is large, otherwise as JDBC batches (H2, small batches).
      */
-    void insert(List<NewRevision> revisions, Instant at, Submitter submitter) {
+    public void insert(List<NewRevision> revisions, Instant at, Submitter submitter) {
         if (revisions.size() >= COPY_THRESHOLD && copy(revisions, at, submitter)) {
             return;
         }
@@ -145,14 +147,14 @@ class FigureStore {
     }
 
     /** A stored value read back: period, granularity, amount. */
-    record Stored(LocalDate periodStart, Granularity granularity, BigDecimal amount) {
+    public record Stored(LocalDate periodStart, Granularity granularity, BigDecimal amount) {
     }
 
     /**
      * The values of a location's measure at the given granularities, as they were known at
      * {@code asOf} (null = now), optionally between two period starts.
      */
-    List<Stored> read(long locationId, String measure, Collection<Granularity> granularities, Instant asOf,
+    public List<Stored> read(long locationId, String measure, Collection<Granularity> granularities, Instant asOf,
             LocalDate from, LocalDate to) {
         MapSqlParameterSource p = new MapSqlParameterSource("location", locationId).addValue("measure", measure)
                 .addValue("granularities", granularities.stream().map(Enum::name).toList())

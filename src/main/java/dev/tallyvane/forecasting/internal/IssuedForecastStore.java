@@ -1,5 +1,6 @@
-package dev.tallyvane.forecasting;
+package dev.tallyvane.forecasting.internal;
 
+import dev.tallyvane.forecasting.IssuedForecast;
 import java.sql.Timestamp;
 import java.sql.Types;
 import java.time.Instant;
@@ -13,7 +14,7 @@ import org.springframework.stereotype.Repository;
 
 /** Writes issued forecasts (insert only) and reads them back. */
 @Repository
-class IssuedForecastStore {
+public class IssuedForecastStore {
 
     private static final String COLUMNS = "id, location_id, measure, granularity, horizon, metric, chosen_key, chosen_name, "
             + "chosen_form, reason, interval_source, origin_count, parameters_json, leaderboard_json, notes_json, "
@@ -25,7 +26,7 @@ class IssuedForecastStore {
         this.jdbc = jdbc;
     }
 
-    long insert(IssuedForecast f) {
+    public long insert(IssuedForecast f) {
         GeneratedKeyHolder keys = new GeneratedKeyHolder();
         jdbc.update(con -> {
             var ps = con.prepareStatement("insert into issued_forecast (location_id, measure, granularity, horizon, metric, "
@@ -94,14 +95,14 @@ class IssuedForecastStore {
             rs.getObject(18, LocalDate.class), rs.getTimestamp(19).toInstant(), rs.getString(20),
             rs.getTimestamp(21).toInstant(), rs.getString(22), rs.getInt(23), List.of());
 
-    Optional<IssuedForecast> latest(long locationId, String measure) {
+    public Optional<IssuedForecast> latest(long locationId, String measure) {
         return jdbc.query("select " + COLUMNS + " from issued_forecast where location_id = ? and measure = ? "
                 + "order by issued_at desc, id desc fetch first 1 rows only", mapper, locationId, measure).stream()
                 .findFirst().map(this::withPoints);
     }
 
     /** Issued forecasts of a series between two moments, newest first (without points unless asked). */
-    List<IssuedForecast> history(long locationId, String measure, Instant from, Instant to, int limit, boolean points) {
+    public List<IssuedForecast> history(long locationId, String measure, Instant from, Instant to, int limit, boolean points) {
         List<IssuedForecast> list = jdbc.query("select " + COLUMNS + " from issued_forecast where location_id = ? and "
                 + "measure = ? and issued_at >= ? and issued_at <= ? order by issued_at desc, id desc fetch first " + limit
                 + " rows only", mapper, locationId, measure, Timestamp.from(from), Timestamp.from(to));
@@ -121,7 +122,7 @@ class IssuedForecastStore {
     }
 
     /** Replaces the series' newest fitted history (one row per series). */
-    void saveFit(long locationId, String measure, long issuedId, String historyJson) {
+    public void saveFit(long locationId, String measure, long issuedId, String historyJson) {
         jdbc.update("insert into series_fit (location_id, measure, issued_id, history_json) values (?, ?, ?, ?) "
                 + "on conflict do nothing", locationId, measure, issuedId, historyJson);
         jdbc.update("update series_fit set issued_id = ?, history_json = ? where location_id = ? and measure = ? "
@@ -129,13 +130,13 @@ class IssuedForecastStore {
     }
 
     /** The newest fitted history as stored, with its forecast's id. */
-    Optional<java.util.Map.Entry<Long, String>> fit(long locationId, String measure) {
+    public Optional<java.util.Map.Entry<Long, String>> fit(long locationId, String measure) {
         return jdbc.query("select issued_id, history_json from series_fit where location_id = ? and measure = ?",
                 (rs, i) -> java.util.Map.entry(rs.getLong(1), rs.getString(2)), locationId, measure).stream().findFirst();
     }
 
     /** Forecasts issued since a moment, of one location (all when null). */
-    long issuedSince(Instant since, Long locationId) {
+    public long issuedSince(Instant since, Long locationId) {
         return locationId == null
                 ? jdbc.queryForObject("select count(*) from issued_forecast where issued_at >= ?", Long.class,
                         Timestamp.from(since))

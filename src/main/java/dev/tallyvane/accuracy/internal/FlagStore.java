@@ -1,5 +1,6 @@
-package dev.tallyvane.accuracy;
+package dev.tallyvane.accuracy.internal;
 
+import dev.tallyvane.accuracy.DriftFlag;
 import dev.tallyvane.accuracy.signal.Signal;
 import dev.tallyvane.location.LocationService;
 import java.sql.Timestamp;
@@ -14,7 +15,7 @@ import org.springframework.stereotype.Repository;
 
 /** The {@code drift_flag} table: open flags, their history, acknowledgements. */
 @Repository
-class FlagStore {
+public class FlagStore {
 
     private static final String COLUMNS = "f.id, f.location_id, f.measure, f.signal, f.signal_value, f.limit_value, "
             + "f.since_period, f.raised_at, f.cleared_at, f.reason, f.acknowledged_at, f.acknowledged_by, f.snoozed_until, f.note";
@@ -40,39 +41,39 @@ class FlagStore {
         return t == null ? null : t.toInstant();
     }
 
-    Optional<DriftFlag> open(long locationId, String measure, Signal signal) {
+    public Optional<DriftFlag> open(long locationId, String measure, Signal signal) {
         return jdbc.query("select " + COLUMNS + " from drift_flag f "
                 + "where f.location_id = ? and f.measure = ? and f.signal = ? and f.cleared_at is null", mapper(), locationId,
                 measure, signal.name()).stream().findFirst();
     }
 
-    void raise(long locationId, String measure, Signal signal, double value, double limit, LocalDate since,
+    public void raise(long locationId, String measure, Signal signal, double value, double limit, LocalDate since,
             String reason, Instant at) {
         jdbc.update("insert into drift_flag (location_id, measure, signal, signal_value, limit_value, since_period, "
                 + "raised_at, reason) values (?, ?, ?, ?, ?, ?, ?, ?)", locationId, measure, signal.name(), value, limit,
                 since, Timestamp.from(at), reason);
     }
 
-    void update(long id, double value, String reason) {
+    public void update(long id, double value, String reason) {
         jdbc.update("update drift_flag set signal_value = ?, reason = ? where id = ?", value, reason, id);
     }
 
-    void clear(long id, Instant at) {
+    public void clear(long id, Instant at) {
         jdbc.update("update drift_flag set cleared_at = ? where id = ?", Timestamp.from(at), id);
     }
 
-    boolean acknowledge(long id, String by, String note, Instant at, Instant snoozedUntil) {
+    public boolean acknowledge(long id, String by, String note, Instant at, Instant snoozedUntil) {
         return jdbc.update("update drift_flag set acknowledged_at = ?, acknowledged_by = ?, note = ?, snoozed_until = ? "
                 + "where id = ?", Timestamp.from(at), by, note, snoozedUntil == null ? null : Timestamp.from(snoozedUntil),
                 id) == 1;
     }
 
-    Optional<DriftFlag> byId(long id) {
+    public Optional<DriftFlag> byId(long id) {
         return jdbc.query("select " + COLUMNS + " from drift_flag f where f.id = ?", mapper(), id).stream().findFirst();
     }
 
     /** Flags, newest first: open ones only, or all (history), optionally for one location. */
-    List<DriftFlag> list(Long locationId, boolean openOnly, int limit) {
+    public List<DriftFlag> list(Long locationId, boolean openOnly, int limit) {
         String where = (openOnly ? " and f.cleared_at is null" : "") + (locationId == null ? "" : " and f.location_id = "
                 + locationId);
         return jdbc.query("select " + COLUMNS + " from drift_flag f where 1 = 1"
@@ -80,7 +81,7 @@ class FlagStore {
     }
 
     /** Counts that change whenever a flag is raised, cleared or acknowledged (for the overview's cache). */
-    List<Long> version() {
+    public List<Long> version() {
         return jdbc.queryForObject("select count(*), count(cleared_at), count(acknowledged_at) from drift_flag",
                 (rs, i) -> List.of(rs.getLong(1), rs.getLong(2), rs.getLong(3)));
     }

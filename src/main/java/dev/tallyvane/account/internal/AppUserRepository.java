@@ -1,10 +1,11 @@
-package dev.tallyvane.account;
+package dev.tallyvane.account.internal;
 
+import dev.tallyvane.account.AppUser;
 import java.util.List;
 import java.util.Optional;
 import org.springframework.data.jpa.repository.JpaRepository;
 
-interface AppUserRepository extends JpaRepository<AppUser, Long> {
+public interface AppUserRepository extends JpaRepository<AppUser, Long> {
 
     Optional<AppUser> findByUsernameIgnoreCase(String username);
 

@@ -1,5 +1,9 @@
-package dev.tallyvane.forecasting;
+package dev.tallyvane.forecasting.internal;
 
+
+import dev.tallyvane.intake.FigureFacts;
+import dev.tallyvane.location.Location;
+import dev.tallyvane.location.LocationService;
 import java.sql.Timestamp;
 import java.time.Instant;
 import java.util.ArrayList;
@@ -8,15 +12,12 @@ import java.util.List;
 import java.util.Map;
 import java.util.Set;
 import java.util.stream.Collectors;
-import dev.tallyvane.intake.FigureFacts;
-import dev.tallyvane.location.Location;
-import dev.tallyvane.location.LocationService;
 import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.stereotype.Repository;
 
 /** {@code series_state}: when a series' data last changed and when it was last fitted. */
 @Repository
-class SeriesStateStore {
+public class SeriesStateStore {
 
     private final JdbcTemplate jdbc;
     private final FigureFacts figures;
@@ -29,18 +30,18 @@ class SeriesStateStore {
     }
 
     /** A series to re-fit. */
-    record SeriesKey(long locationId, String measure) {
-        String instance() {
+    public record SeriesKey(long locationId, String measure) {
+        public String instance() {
             return locationId + ":" + measure;
         }
 
-        static SeriesKey parse(String instance) {
+        public static SeriesKey parse(String instance) {
             int colon = instance.indexOf(':');
             return new SeriesKey(Long.parseLong(instance.substring(0, colon)), instance.substring(colon + 1));
         }
     }
 
-    void changed(SeriesKey key, Instant at) {
+    public void changed(SeriesKey key, Instant at) {
         Timestamp ts = Timestamp.from(at);
         jdbc.update("insert into series_state (location_id, measure, data_changed_at) values (?, ?, ?) on conflict do nothing",
                 key.locationId(), key.measure(), ts);
@@ -48,7 +49,7 @@ class SeriesStateStore {
                 + "data_changed_at < ?", ts, key.locationId(), key.measure(), ts);
     }
 
-    void fitted(SeriesKey key, Instant at, Instant cutoff, String outcome) {
+    public void fitted(SeriesKey key, Instant at, Instant cutoff, String outcome) {
         String text = outcome.length() > 400 ? outcome.substring(0, 400) : outcome;
         jdbc.update("insert into series_state (location_id, measure, data_changed_at) values (?, ?, ?) on conflict do nothing",
                 key.locationId(), key.measure(), Timestamp.from(cutoff));
@@ -57,14 +58,14 @@ class SeriesStateStore {
     }
 
     /** What the last fit of the series did ("issued #…", "not enough data: …", "failed: …"), if it ran. */
-    java.util.Optional<String> outcome(SeriesKey key) {
+    public java.util.Optional<String> outcome(SeriesKey key) {
         return jdbc.query("select last_outcome from series_state where location_id = ? and measure = ? and "
                 + "last_outcome is not null", (rs, i) -> rs.getString(1), key.locationId(), key.measure())
                 .stream().findFirst();
     }
 
     /** True when figures were recorded for the series after {@code cutoff}. */
-    boolean changedSince(SeriesKey key, Instant cutoff) {
+    public boolean changedSince(SeriesKey key, Instant cutoff) {
         Integer n = jdbc.queryForObject("select count(*) from series_state where location_id = ? and measure = ? and "
                 + "data_changed_at > ?", Integer.class, key.locationId(), key.measure(), Timestamp.from(cutoff));
         return n != null && n > 0;
@@ -76,7 +77,7 @@ class SeriesStateStore {
      * fitted. Read from the figures themselves (the intake's read API), so a change whose re-fit was
      * never queued is still found.
      */
-    List<SeriesKey> stale(Instant fittedBefore) {
+    public List<SeriesKey> stale(Instant fittedBefore) {
         Map<SeriesKey, Instant[]> fits = new HashMap<>();
         jdbc.query("select location_id, measure, fitted_cutoff, fitted_at from series_state", rs -> {
             Timestamp cutoff = rs.getTimestamp(3);
@@ -98,14 +99,14 @@ class SeriesStateStore {
     }
 
     /** Every series with figures of active locations (of one location, or all when null), for "re-fit now". */
-    List<SeriesKey> all(Long locationId) {
+    public List<SeriesKey> all(Long locationId) {
         Set<Long> active = activeLocations();
         return figures.series(locationId).stream().filter(a -> active.contains(a.locationId()))
                 .map(a -> new SeriesKey(a.locationId(), a.measure())).toList();
     }
 
     /** How many series (of one location, or all when null) failed their last fit. */
-    long failing(Long locationId) {
+    public long failing(Long locationId) {
         Long n = locationId == null
                 ? jdbc.queryForObject("select count(*) from series_state where last_outcome like 'failed%'", Long.class)
                 : jdbc.queryForObject("select count(*) from series_state where last_outcome like 'failed%' and "

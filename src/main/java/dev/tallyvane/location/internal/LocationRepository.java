@@ -1,11 +1,12 @@
-package dev.tallyvane.location;
+package dev.tallyvane.location.internal;
 
+import dev.tallyvane.location.Location;
 import java.util.Collection;
 import java.util.List;
 import java.util.Optional;
 import org.springframework.data.jpa.repository.JpaRepository;
 
-interface LocationRepository extends JpaRepository<Location, Long> {
+public interface LocationRepository extends JpaRepository<Location, Long> {
 
     Optional<Location> findByCode(String code);
 
