@@ -70,10 +70,14 @@ public final class ForecastEngine {
         List<String> notes = new ArrayList<>(data.notes());
         int n = data.length();
         int h = request.horizon();
-        int m = request.seasonalPeriod() > 0 ? request.seasonalPeriod() : series.granularity().seasonalPeriod();
-        if (m >= n / 2 && m > 1 && request.seasonalPeriod() == 0) {
-            notes.add(String.format(Locale.ROOT,
-                    "%d periods are fewer than two seasonal cycles of %d: seasonal candidates are left out", n, m));
+        int season = request.seasonalPeriod() > 0 ? request.seasonalPeriod() : series.granularity().seasonalPeriod();
+        // a season needs two full cycles to be told from noise: with fewer, the series is treated as having
+        // none, by every candidate (seasonal naive, dummies, and the seasonal forms of ETS and ARIMA), as the
+        // note says; with exactly two, seasonal methods are compared on the lead times the data hold
+        int m = season >= 2 && n < 2 * season ? 1 : season;
+        if (m != season) {
+            notes.add(String.format(Locale.ROOT, "%d periods are fewer than two seasonal cycles of %d: seasonal "
+                    + "candidates are left out and the series is treated as having no season", n, season));
         }
         boolean intermittent = Croston.intermittent(data.filled());
         if (intermittent) {

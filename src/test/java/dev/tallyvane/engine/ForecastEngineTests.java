@@ -32,6 +32,22 @@ class ForecastEngineTests {
     }
 
     @Test
+    void theNoteAboutSeasonalCandidatesIsTrueOfTheLeaderboard() {
+        java.util.function.Predicate<String> seasonal = k -> k.equals("snaive") || k.endsWith("s") && k.startsWith("poly");
+        // two full cycles: seasonal candidates are compared (on the lead times the data hold), no note says otherwise
+        ForecastResult two = ForecastEngine.forecast(monthly(seasonalMonthly(24, 3)), ForecastRequest.of(12));
+        assertThat(two.notes()).noneMatch(n -> n.contains("left out"));
+        assertThat(two.leaderboard()).anyMatch(e -> seasonal.test(e.key()) && e.status() == LeaderboardEntry.Status.SCORED);
+        // fewer than two cycles: the note says they are left out, and none is on the leaderboard
+        ForecastResult short20 = ForecastEngine.forecast(monthly(seasonalMonthly(20, 3)), ForecastRequest.of(6));
+        assertThat(short20.notes()).anyMatch(n -> n.contains("seasonal candidates are left out"));
+        assertThat(short20.leaderboard()).noneMatch(e -> seasonal.test(e.key()));
+        assertThat(seasonal.test(short20.chosenKey())).isFalse();
+        // and no candidate used a season: the trading-day regression has no monthly dummies then
+        assertThat(short20.chosenForm()).doesNotContain("ETS(A,A,A)", "ETS(A,N,A)", "ETS(M,N,M)");
+    }
+
+    @Test
     void choosesASeasonalModelForSeasonalMonthlySalesAndReportsEveryCandidate() {
         ForecastResult r = ForecastEngine.forecast(monthly(seasonalMonthly(48, 1)), ForecastRequest.of(6));
         // the seasonal forms (tdays: seasonal dummies with trading days, which can win on noise alone)

@@ -22,6 +22,21 @@ import java.util.Map;
  * (FPP3 §7.6; Montgomery, Peck &amp; Vining, <i>Introduction to Linear Regression Analysis</i>,
  * §2.5). Fitted values are in-sample (the line is fitted to the data it is scored on); the engine
  * therefore selects only by out-of-sample rolling-origin errors.
+ *
+ * <p><b>Beyond the data</b> a polynomial's curvature is not evidence of anything: a cubic fitted to
+ * three years runs away within months, and a quarter of bad weeks bends a quadratic into a collapse.
+ * So forecasts are bounded and damped (our rule; the damping is in the spirit of Gardner &amp;
+ * McKenzie's damped trend, <i>Management Science</i> 31(10), 1985):
+ * <pre>
+ *   trend part  p(t) = Σ_{k≥1} β_k u_t^k      (degree ≥ 2; a straight line is left as it is)
+ *   ŷ_{n−1+h} = level_{n−1+h} + p(n−1) + p′(n−1) · Σ_{i=1..h} φ^i,   φ = {@value #DAMPING}
+ * </pre>
+ * i.e. the curve is followed to the last period, then its tangent there, with the slope shrinking
+ * by φ each period (in all it adds at most φ/(1−φ) = 9 periods of the last slope). Every forecast,
+ * of any degree, is then kept within the data's range widened by that range once on each side
+ * ([min − (max − min), max + (max − min)]), and at or above zero when the data never went below it.
+ * The interval widths stay the regression's (those of the polynomial at the forecast period, so
+ * wider than the damped path needs: cautious).
  */
 public final class PolynomialTrend implements Candidate {
 
@@ -29,6 +44,9 @@ public final class PolynomialTrend implements Candidate {
     public static String key(int degree, boolean seasonal) {
         return "poly" + degree + (seasonal ? "s" : "");
     }
+
+    /** Per-period damping of the slope beyond the data, for degrees 2 and 3. */
+    public static final double DAMPING = 0.9;
 
     private final int degree;
     private final boolean seasonal;
@@ -116,7 +134,55 @@ public final class PolynomialTrend implements Candidate {
         for (int j = 0; j < b.length; j++) {
             params.put(j <= degree ? "b" + j : "season" + (j - degree), b[j]);
         }
-        return Regression.model(y, row, fit, params, name() + " (time centred and scaled)");
+        FittedModel regression = Regression.model(y, row, fit, params, name() + " (time centred and scaled)");
+        double[] trend = java.util.Arrays.copyOfRange(b, 1, degree + 1);
+        java.util.function.IntToDoubleFunction level = t -> b[0] + (seasonal && t % m > 0 ? b[degree + t % m] : 0);
+        return new Fit(regression.fitted(), h -> {
+            PointForecast f = regression.forecast(h);
+            return new PointForecast(beyondTheData(y, trend, level, h), f.sd(), f.degreesOfFreedom(), f.logScale());
+        }, regression.parameters(), regression.description());
+    }
+
+    /**
+     * The forecasts beyond the data by the rule in the class comment: the level (intercept and season)
+     * plus the trend part p(t) = Σ β_k u_t^k, followed by its damped tangent after the last period
+     * (degree ≥ 2), then bounded by the data's range.
+     */
+    double[] beyondTheData(double[] y, double[] trend, java.util.function.IntToDoubleFunction level, int h) {
+        int n = y.length;
+        double centre = (n - 1) / 2.0;
+        double uLast = centre == 0 ? 0 : (n - 1 - centre) / centre;
+        double pLast = 0;
+        double slope = 0; // dp/dt at the last period: Σ k β_k u^{k−1} · du/dt, du/dt = 1/c
+        for (int k = 1; k <= trend.length; k++) {
+            pLast += trend[k - 1] * Math.pow(uLast, k);
+            slope += k * trend[k - 1] * Math.pow(uLast, k - 1) / (centre == 0 ? 1 : centre);
+        }
+        double min = Double.POSITIVE_INFINITY;
+        double max = Double.NEGATIVE_INFINITY;
+        for (double v : y) {
+            min = Math.min(min, v);
+            max = Math.max(max, v);
+        }
+        double span = max - min;
+        double lo = min >= 0 ? Math.max(0, min - span) : min - span;
+        double hi = max + span;
+        double[] out = new double[h];
+        double damped = 0;
+        double weight = 1;
+        for (int i = 1; i <= h; i++) {
+            int t = n - 1 + i;
+            double p;
+            if (trend.length == 1) {
+                p = pLast + slope * i; // a straight line is its own tangent
+            } else {
+                weight *= DAMPING;
+                damped += weight;
+                p = pLast + slope * damped;
+            }
+            out[i - 1] = Math.max(lo, Math.min(hi, level.applyAsDouble(t) + p));
+        }
+        return out;
     }
 
     /** Point forecasts by the within-season route (see {@link #forOrigins}); null where it does not apply. */
@@ -177,13 +243,15 @@ public final class PolynomialTrend implements Candidate {
         for (int t = 0; t < n; t++) {
             fitted[t] = value.applyAsDouble(t);
         }
-        return new Fit(fitted, h -> {
-            double[] mean = new double[h];
-            for (int i = 0; i < h; i++) {
-                mean[i] = value.applyAsDouble(n + i);
+        double[] offset = new double[m]; // each season's level: its mean of y less the trend's mean there
+        for (int season = 0; season < m; season++) {
+            offset[season] = means[season][0];
+            for (int k = 1; k <= degree; k++) {
+                offset[season] -= b[k - 1] * means[season][k];
             }
-            return PointForecast.withoutIntervals(mean);
-        }, Map.of(), name() + " (point forecasts within seasons)");
+        }
+        return new Fit(fitted, h -> PointForecast.withoutIntervals(beyondTheData(y, b, t -> offset[t % m], h)),
+                Map.of(), name() + " (point forecasts within seasons)");
     }
 
     /** The design row of period t: powers of the centred time u_t, then the season's dummy. */

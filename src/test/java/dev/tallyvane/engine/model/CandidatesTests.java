@@ -75,14 +75,49 @@ class CandidatesTests {
     }
 
     @Test
-    void polynomialTrendRecoversAnExactCubicAndExtendsIt() {
+    void polynomialTrendRecoversAnExactCubicThenFollowsItsDampedTangent() {
         double[] y = new double[30];
         for (int t = 0; t < y.length; t++) {
             y[t] = 5 + 0.5 * t - 0.02 * t * t + 0.001 * t * t * t;
         }
-        PointForecast f = new PolynomialTrend(3, false).fit(y, 1).forecast(2);
-        assertThat(f.mean()[0]).isCloseTo(5 + 0.5 * 30 - 0.02 * 900 + 0.001 * 27000, within(1e-8));
-        assertThat(f.mean()[1]).isCloseTo(5 + 0.5 * 31 - 0.02 * 961 + 0.001 * 29791, within(1e-8));
+        FittedModel fit = new PolynomialTrend(3, false).fit(y, 1);
+        for (int t = 0; t < y.length; t++) {
+            assertThat(fit.fitted()[t]).isCloseTo(y[t], within(1e-8));
+        }
+        // beyond the data: the value at the last period plus its slope there, damped by φ each period
+        double slope = 0.5 - 0.04 * 29 + 0.003 * 29 * 29;
+        double phi = PolynomialTrend.DAMPING;
+        PointForecast f = fit.forecast(3);
+        assertThat(f.mean()[0]).isCloseTo(y[29] + slope * phi, within(1e-8));
+        assertThat(f.mean()[2]).isCloseTo(y[29] + slope * (phi + phi * phi + phi * phi * phi), within(1e-8));
+        // a straight line is extended as it is
+        double[] line = new double[20];
+        for (int t = 0; t < line.length; t++) {
+            line[t] = 100 + 3 * t;
+        }
+        assertThat(new PolynomialTrend(1, false).fit(line, 1).forecast(2).mean()[1]).isCloseTo(100 + 3 * 21, within(1e-8));
+    }
+
+    @Test
+    void aQuarterOfBadWeeksIsNotExtrapolatedIntoACollapse() {
+        // three years of steady weeks, the last thirteen 20% down: an undamped quadratic or cubic would
+        // carry the fall on for a year and go below zero
+        java.util.Random r = new java.util.Random(7);
+        double[] y = new double[156];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = (t >= 143 ? 800 : 1000) + 20 * r.nextGaussian();
+        }
+        double min = java.util.Arrays.stream(y).min().orElseThrow();
+        double max = java.util.Arrays.stream(y).max().orElseThrow();
+        for (int degree = 2; degree <= 3; degree++) {
+            double[] f = new PolynomialTrend(degree, false).fit(y, 1).forecast(52).mean();
+            double lastStep = f[1] - f[0];
+            for (double v : f) {
+                assertThat(v).isBetween(Math.max(0, min - (max - min)), max + (max - min));
+            }
+            // the slope shrinks by φ each week, so the path flattens out
+            assertThat(Math.abs(f[51] - f[50])).isLessThan(Math.abs(lastStep) * 0.01 + 1e-9);
+        }
     }
 
     @Test
