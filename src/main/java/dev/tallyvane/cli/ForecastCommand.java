@@ -42,6 +42,7 @@ public final class ForecastCommand {
             usage: java -jar tallyvane.jar forecast --input sales.csv --horizon N
                      [--granularity month|week|day] [--metric mse|mae|rmse|mape|smape|mase|wape|me]
                      [--output forecast.csv] [--report leaderboard.csv]
+                   java -jar tallyvane.jar forecast --help | --version
             input: CSV with header period,value; periods yyyy-MM (months), yyyy-Www (ISO weeks) or
                    yyyy-MM-dd (days); an empty value marks a missing period.""";
 
@@ -57,6 +58,15 @@ public final class ForecastCommand {
 
     /** Runs the command; returns the exit code. {@code args[0]} is the command name. */
     public static int run(String[] args, PrintStream out, PrintStream err) {
+        if (args.length == 2 && (args[1].equals("--help") || args[1].equals("-h"))) {
+            out.println(USAGE);
+            out.println("Forecasts are estimates, not guarantees: the intervals show the likely range (80% and 95%).");
+            return 0;
+        }
+        if (args.length == 2 && args[1].equals("--version")) {
+            out.println("Tallyvane forecast " + version() + ", engine " + ForecastEngine.VERSION);
+            return 0;
+        }
         try {
             Map<String, String> options = options(args);
             Path input = Path.of(required(options, "input"));
@@ -98,6 +108,19 @@ public final class ForecastCommand {
         } catch (RuntimeException e) {
             err.println("unexpected failure: " + e);
             return 1;
+        }
+    }
+
+    /** The version the build wrote into {@code version.properties} beside this class. */
+    static String version() {
+        try (java.io.InputStream in = ForecastCommand.class.getResourceAsStream("version.properties")) {
+            java.util.Properties p = new java.util.Properties();
+            if (in != null) {
+                p.load(in);
+            }
+            return p.getProperty("version", "unknown");
+        } catch (IOException e) {
+            return "unknown";
         }
     }
 

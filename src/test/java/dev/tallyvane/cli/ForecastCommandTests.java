@@ -2,6 +2,8 @@ package dev.tallyvane.cli;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import dev.tallyvane.engine.ForecastEngine;
+
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.PrintStream;
@@ -44,6 +46,21 @@ class ForecastCommandTests {
         Path p = dir.resolve("sales.csv");
         Files.writeString(p, sb.toString());
         return p;
+    }
+
+    @Test
+    void helpAndVersionPrintAndExitZero() {
+        java.io.ByteArrayOutputStream out = new java.io.ByteArrayOutputStream();
+        java.io.ByteArrayOutputStream err = new java.io.ByteArrayOutputStream();
+        assertThat(ForecastCommand.run(new String[] {"forecast", "--help"}, new java.io.PrintStream(out),
+                new java.io.PrintStream(err))).isZero();
+        assertThat(out.toString()).contains("usage: java -jar tallyvane.jar forecast --input").contains("estimates");
+        out.reset();
+        assertThat(ForecastCommand.run(new String[] {"forecast", "--version"}, new java.io.PrintStream(out),
+                new java.io.PrintStream(err))).isZero();
+        assertThat(out.toString()).matches("Tallyvane forecast \\d+\\.\\d+\\.\\d+(-SNAPSHOT)?, engine "
+                + java.util.regex.Pattern.quote(ForecastEngine.VERSION) + "\\R");
+        assertThat(err.toString()).isEmpty();
     }
 
     @Test
