@@ -82,7 +82,12 @@ abstract class UploadFlowContract {
         long id = upload("nul\u0000.csv", csv.getBytes(StandardCharsets.UTF_8));
         mvc.perform(get("/uploads/{id}", id).with(bookkeeper)).andExpect(status().isOk())
                 .andExpect(content().string(containsString("control character (U+0000)")))
+                .andExpect(content().string(containsString("2 problems; row numbers as in the file")))
                 .andExpect(content().string(containsString("nul.csv")));
+        long single = upload("one.csv", ("location,period,amount\n" + code + ",2026-11-01,abc\n")
+                .getBytes(StandardCharsets.UTF_8));
+        mvc.perform(get("/uploads/{id}", single).with(bookkeeper))
+                .andExpect(content().string(containsString("1 problem; row numbers as in the file")));
         String page = mvc.perform(post("/uploads/{id}/commit", id).with(bookkeeper).with(csrf()))
                 .andExpect(status().isOk()).andReturn().getResponse().getContentAsString(StandardCharsets.UTF_8);
         assertThat(page).contains("control character (U+0000)");
