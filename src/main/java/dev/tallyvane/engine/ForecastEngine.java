@@ -61,6 +61,14 @@ public final class ForecastEngine {
     private static final int MINIMUM_TRAINING = 4;
     /** How many of the best candidates the combination averages. */
     private static final int COMBINED = 3;
+    /**
+     * A single method replaces the mean of the three best only when it is clearly better: no worse on
+     * more than two thirds of the origins (at least three), and lower by this factor overall or exactly
+     * as good (then the simpler wins). Combinations
+     * are robust where selection on a few origins chases noise (Makridakis et al., the M4
+     * competition, <i>International Journal of Forecasting</i> 36(1), 2020: combinations led).
+     */
+    static final double CLEAR_MARGIN = 0.95;
 
     private ForecastEngine() {
     }
@@ -145,6 +153,33 @@ public final class ForecastEngine {
         RollingOriginBacktest.Outcome chosenOutcome = null;
         String reason;
         Scored winner = scored.stream().filter(s -> Double.isFinite(s.score)).findFirst().orElse(null);
+        String preferred = null;
+        if (winner != null && !(winner.candidate instanceof Combination)) {
+            Scored combo = scored.stream().filter(s -> s.candidate instanceof Combination c
+                    && c.key().equals(Combination.Rule.MEAN.key()) && Double.isFinite(s.score)).findFirst().orElse(null);
+            if (combo != null) {
+                double[] single = backtest.scoreByOrigin(winner.outcome, data.filled(), data.scorable(), m, metric);
+                double[] mean = backtest.scoreByOrigin(combo.outcome, data.filled(), data.scorable(), m, metric);
+                int wins = 0;
+                int compared = 0;
+                for (int i = 0; i < single.length; i++) {
+                    if (Double.isFinite(single[i]) && Double.isFinite(mean[i])) {
+                        compared++;
+                        wins += rankable(metric, single[i]) <= rankable(metric, mean[i]) ? 1 : 0; // a tie: the simpler
+                    }
+                }
+                double alone = rankable(metric, winner.score);
+                double together = rankable(metric, combo.score);
+                boolean clearly = compared >= 3 && wins * 3 > compared * 2
+                        && (alone < CLEAR_MARGIN * together || alone == together);
+                if (!clearly) {
+                    preferred = String.format(Locale.ROOT, "%s scored best but won on %d of %d origins only; the mean "
+                            + "of the three best is used, as no single method was clearly better.",
+                            winner.candidate.name(), wins, compared);
+                    winner = combo;
+                }
+            }
+        }
         if (winner == null) {
             chosen = new Naive();
             reason = "Too little history to compare methods out of sample; the naive method (last value carried "
@@ -158,6 +193,11 @@ public final class ForecastEngine {
             reason = String.format(Locale.ROOT, "Lowest %s over %d rolling origin%s, %s%d %s ahead.", metric.label(),
                     backtest.originCount(), backtest.originCount() == 1 ? "" : "s",
                     backtest.allLeadTimes() ? "up to " : "", lead, unit(series.granularity(), lead));
+            if (preferred != null) {
+                reason = String.format(Locale.ROOT, "Compared by %s over %d rolling origin%s, %s%d %s ahead: %s",
+                        metric.label(), backtest.originCount(), backtest.originCount() == 1 ? "" : "s",
+                        backtest.allLeadTimes() ? "up to " : "", lead, unit(series.granularity(), lead), preferred);
+            }
         }
 
         List<LeaderboardEntry> board = new ArrayList<>();

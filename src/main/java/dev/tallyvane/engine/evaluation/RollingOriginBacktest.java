@@ -149,6 +149,23 @@ public final class RollingOriginBacktest {
         return allLeadTimes ? outcome.balanced(metric) : outcome.errors().compute(metric);
     }
 
+    /** The metric of each origin's own errors (NaN for an origin with none), for paired comparisons. */
+    public double[] scoreByOrigin(Outcome outcome, double[] y, boolean[] scorable, int seasonalPeriod, Metric metric) {
+        double[] out = new double[origins.length];
+        for (int i = 0; i < origins.length; i++) {
+            ErrorSample at = new ErrorSample();
+            double scale = ErrorSample.maseScale(y, scorable, origins[i], seasonalPeriod);
+            for (int h = 1; h <= horizon; h++) {
+                int t = origins[i] + h - 1;
+                if (t < y.length && scorable[t]) {
+                    at.add(y[t], outcome.forecasts()[i][h - 1], scale);
+                }
+            }
+            out[i] = at.compute(metric);
+        }
+        return out;
+    }
+
     /** Scores forecasts made at this backtest's origins (origin × step) against the data. */
     public Outcome score(double[][] forecasts, double[] y, boolean[] scorable, int seasonalPeriod) {
         ErrorSample errors = new ErrorSample();
