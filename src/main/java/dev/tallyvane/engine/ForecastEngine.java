@@ -49,7 +49,9 @@ import org.apache.commons.math3.distribution.TDistribution;
  * <p><b>Intervals</b>: the model's analytic σ_h where it has one (normal, or the t distribution where the
  * model states degrees of freedom; log-normal for models of the logarithms); otherwise empirical from the rolling-origin errors: σ_h =
  * RMSE of the step-h errors (made non-decreasing in h), with the t distribution on as many degrees of
- * freedom as there were step-h errors, since few origins give a rough estimate of σ_h.
+ * freedom as there were errors at steps 1..h (the non-decreasing σ_h rests on all of them; counting
+ * only the step-h errors gave a far step with one error a t quantile on one degree of freedom and a
+ * 95% band four times as wide as the 80% one).
  *
  * <p>Deterministic: no randomness is used.
  */
@@ -256,6 +258,7 @@ public final class ForecastEngine {
         List<ForecastPoint> out = new ArrayList<>(h);
         double runningSd = 0;
         double lastDf = 1;
+        int errorsSoFar = 0;
         for (int step = 1; step <= h; step++) {
             int index = data.offset() + data.length() + step - 1;
             java.time.LocalDate period = series.periodAt(index);
@@ -276,7 +279,11 @@ public final class ForecastEngine {
             int count = outcome.countAt(step);
             if (Double.isFinite(r)) {
                 runningSd = Math.max(runningSd, r);
-                lastDf = Math.max(1, count);
+            }
+            errorsSoFar += count;
+            if (Double.isFinite(r)) {
+                // σ_h is the largest step RMSE so far (non-decreasing in h): it rests on every error up to h
+                lastDf = Math.max(1, errorsSoFar);
             }
             double z80 = quantile(0.90, lastDf);
             double z95 = quantile(0.975, lastDf);

@@ -32,6 +32,19 @@ class ForecastEngineTests {
     }
 
     @Test
+    void rollingOriginBandsStayCoherentWhenFarStepsHaveFewErrors() {
+        // 24 months, 12 ahead, a method without formula intervals: the far steps have one or two backtest
+        // errors each; the 95% band must not balloon against the 80% one (normal: 1.96/1.28 = 1.53)
+        ForecastResult r = ForecastEngine.forecast(monthly(seasonalMonthly(24, 5)), ForecastRequest.of(12)
+                .withCandidates(Set.of("ma3")));
+        assertThat(r.intervalSource()).isEqualTo(ForecastResult.IntervalSource.ROLLING_ORIGIN_ERRORS);
+        for (ForecastResult.ForecastPoint p : r.forecasts()) {
+            double ratio = (p.hi95() - p.lo95()) / (p.hi80() - p.lo80());
+            assertThat(ratio).as("95%%/80%% width at %s", p.label()).isBetween(1.5, 2.0);
+        }
+    }
+
+    @Test
     void aSingleMethodReplacesTheCombinationOnlyWhenItIsClearlyBetter() {
         // an exact seasonal pattern with a trend: the trend with dummies is best at every origin, by far
         double[] exact = new double[48];
