@@ -80,8 +80,10 @@ class AccuracyScoring {
     }
 
     private void lockSeries(long locationId, String measure) {
-        jdbc.update("insert into accuracy_series (location_id, measure) select ?, ? where not exists (select 1 from "
-                + "accuracy_series where location_id = ? and measure = ?)", locationId, measure, locationId, measure);
+        // two listeners may create the row at once: the loser's insert does nothing (a failed insert would
+        // abort its transaction on PostgreSQL), then both wait for the lock in turn
+        jdbc.update("insert into accuracy_series (location_id, measure) values (?, ?) on conflict do nothing",
+                locationId, measure);
         jdbc.queryForList("select location_id from accuracy_series where location_id = ? and measure = ? for update",
                 Long.class, locationId, measure);
     }

@@ -2,6 +2,7 @@ package dev.tallyvane.system;
 
 import jakarta.servlet.http.HttpServletRequest;
 import java.net.URI;
+import java.util.List;
 import java.util.Map;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
@@ -50,16 +51,112 @@ public class ProblemResponses {
         return problem(HttpStatusCode.valueOf(e.status()), e.type(), e.title(), e.getMessage());
     }
 
+    /**
+     * A body that is not JSON, or not of the expected shape: said in our words with the field's path,
+     * never the parser's message (which quotes internals and, for some failures, the input's source).
+     */
     @ExceptionHandler(HttpMessageNotReadableException.class)
     ProblemDetail unreadable(HttpMessageNotReadableException e) {
-        return problem(HttpStatus.BAD_REQUEST, "malformed-body", "The request body could not be read",
-                "The body is not valid JSON of the expected shape: " + rootMessage(e));
+        tools.jackson.core.JacksonException json = cause(e, tools.jackson.core.JacksonException.class);
+        String field = json == null ? "" : path(json);
+        String detail;
+        String reason;
+        if (json instanceof tools.jackson.databind.exc.UnrecognizedPropertyException unknown) {
+            reason = "is not a field of this request";
+            field = field.isEmpty() ? unknown.getPropertyName() : field;
+        } else if (json instanceof tools.jackson.databind.exc.MismatchedInputException mismatch
+                && mismatch.getTargetType() != null && !field.isEmpty()) {
+            reason = "must be " + expected(mismatch.getTargetType());
+        } else if (json instanceof tools.jackson.core.exc.StreamReadException && json.getLocation() != null
+                && json.getLocation().getLineNr() > 0) {
+            return problem(HttpStatus.BAD_REQUEST, "malformed-body", "The request body could not be read",
+                    "The body is not valid JSON (near line " + json.getLocation().getLineNr() + ", column "
+                            + json.getLocation().getColumnNr() + ").");
+        } else {
+            reason = null;
+        }
+        if (reason == null || field.isEmpty()) {
+            return problem(HttpStatus.BAD_REQUEST, "malformed-body", "The request body could not be read",
+                    "The body is not JSON of the expected shape; see the API reference for this call.");
+        }
+        detail = "Field '" + field + "' " + reason + ".";
+        ProblemDetail p = problem(HttpStatus.BAD_REQUEST, "malformed-body", "The request body could not be read", detail);
+        p.setProperty("errors", List.of(Map.of("field", field, "reason", reason)));
+        return p;
     }
 
-    @ExceptionHandler({MethodArgumentTypeMismatchException.class, MissingServletRequestParameterException.class})
-    ProblemDetail badParameter(Exception e) {
-        return problem(HttpStatus.BAD_REQUEST, "bad-parameter", "A request parameter is missing or malformed",
-                e.getMessage());
+    @ExceptionHandler(MethodArgumentTypeMismatchException.class)
+    ProblemDetail badParameter(MethodArgumentTypeMismatchException e) {
+        String value = String.valueOf(e.getValue());
+        value = value.length() > 60 ? value.substring(0, 60) + "…" : value;
+        String reason = "must be " + (e.getRequiredType() == null ? "of another kind" : expected(e.getRequiredType()))
+                + "; got '" + value + "'";
+        ProblemDetail p = problem(HttpStatus.BAD_REQUEST, "bad-parameter", "A request parameter is malformed",
+                "Parameter '" + e.getName() + "' " + reason + ".");
+        p.setProperty("errors", List.of(Map.of("field", e.getName(), "reason", reason)));
+        return p;
+    }
+
+    @ExceptionHandler(MissingServletRequestParameterException.class)
+    ProblemDetail missingParameter(MissingServletRequestParameterException e) {
+        ProblemDetail p = problem(HttpStatus.BAD_REQUEST, "bad-parameter", "A request parameter is missing",
+                "Parameter '" + e.getParameterName() + "' is required.");
+        p.setProperty("errors", List.of(Map.of("field", e.getParameterName(), "reason", "is required")));
+        return p;
+    }
+
+    /** What a value of this type looks like, in the words a message uses. */
+    static String expected(Class<?> type) {
+        if (type == java.time.LocalDate.class) {
+            return "a date such as 2026-11-30";
+        }
+        if (type == java.time.Instant.class) {
+            return "a moment such as 2026-11-01T00:00:00Z";
+        }
+        if (type == int.class || type == Integer.class || type == long.class || type == Long.class
+                || type == short.class || type == Short.class) {
+            return "a whole number";
+        }
+        if (type == double.class || type == Double.class || type == float.class || type == Float.class
+                || type == java.math.BigDecimal.class) {
+            return "a number";
+        }
+        if (type == boolean.class || type == Boolean.class) {
+            return "true or false";
+        }
+        if (type == String.class) {
+            return "text";
+        }
+        if (java.util.Collection.class.isAssignableFrom(type) || type.isArray()) {
+            return "a list";
+        }
+        if (type.isEnum()) {
+            return "one of " + java.util.Arrays.stream(type.getEnumConstants()).map(c -> c.toString()
+                    .toLowerCase(java.util.Locale.ROOT)).collect(java.util.stream.Collectors.joining(", "));
+        }
+        return "an object";
+    }
+
+    /** The JSON path of the failure, e.g. {@code closed[0]}. */
+    private static String path(tools.jackson.core.JacksonException e) {
+        StringBuilder sb = new StringBuilder();
+        for (tools.jackson.core.JacksonException.Reference r : e.getPath()) {
+            if (r.getPropertyName() != null) {
+                sb.append(sb.length() == 0 ? "" : ".").append(r.getPropertyName());
+            } else if (r.getIndex() >= 0) {
+                sb.append('[').append(r.getIndex()).append(']');
+            }
+        }
+        return sb.toString();
+    }
+
+    private static <T extends Throwable> T cause(Throwable e, Class<T> type) {
+        for (Throwable t = e; t != null; t = t.getCause() == t ? null : t.getCause()) {
+            if (type.isInstance(t)) {
+                return type.cast(t);
+            }
+        }
+        return null;
     }
 
     @ExceptionHandler(HttpMediaTypeNotSupportedException.class)

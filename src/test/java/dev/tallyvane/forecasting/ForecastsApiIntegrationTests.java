@@ -107,6 +107,40 @@ class ForecastsApiIntegrationTests {
                 .andExpect(jsonPath("$.length()").value(1));
     }
 
+    /** Problem details say what is wrong in our words, with the field, never the parser's or a library's text. */
+    @Test
+    void malformedBodiesAndParametersAreNamedInPlainWords() throws Exception {
+        String calendar = mvc.perform(as(put("/api/v1/locations/{c}/calendar", code), token)
+                        .contentType(MediaType.APPLICATION_JSON).content("{\"closed\":[\"2026-12-24\",\"2026-13-45\"]}"))
+                .andExpect(status().isBadRequest())
+                .andExpect(jsonPath("$.detail").value("Field 'closed[1]' must be a date such as 2026-11-30."))
+                .andExpect(jsonPath("$.errors[0].field").value("closed[1]"))
+                .andReturn().getResponse().getContentAsString();
+        String settings = mvc.perform(as(put("/api/v1/locations/{c}/settings", code), token)
+                        .contentType(MediaType.APPLICATION_JSON).content("{\"horizon\":\"soon\"}"))
+                .andExpect(status().isBadRequest())
+                .andExpect(jsonPath("$.detail").value("Field 'horizon' must be a whole number."))
+                .andReturn().getResponse().getContentAsString();
+        String syntax = mvc.perform(as(put("/api/v1/locations/{c}/settings", code), token)
+                        .contentType(MediaType.APPLICATION_JSON).content("{\"horizon\": 3,"))
+                .andExpect(status().isBadRequest()).andReturn().getResponse().getContentAsString();
+        String parameter = mvc.perform(as(get("/api/v1/locations/{c}/forecasts", code), token)
+                        .param("from", "yesterday"))
+                .andExpect(status().isBadRequest())
+                .andExpect(jsonPath("$.detail").value(containsString("Parameter 'from' must be a moment such as "
+                        + "2026-11-01T00:00:00Z; got 'yesterday'")))
+                .andReturn().getResponse().getContentAsString();
+        String figures = mvc.perform(as(post("/api/v1/figures"), token).contentType(MediaType.APPLICATION_JSON)
+                        .content("{\"figures\": [x]}"))
+                .andExpect(status().isBadRequest())
+                .andExpect(jsonPath("$.detail").value(containsString("near line 1")))
+                .andReturn().getResponse().getContentAsString();
+        for (String answer : List.of(calendar, settings, syntax, parameter, figures)) {
+            assertThat(answer).doesNotContain("could not be parsed", "Source:", "REDACTED", "Cannot deserialize",
+                    "Unexpected character", "java.", "tools.jackson", "Failed to convert");
+        }
+    }
+
     @Test
     void refitsCanBeTriggeredAndWatched() throws Exception {
         mvc.perform(as(post("/api/v1/refits").param("location", code), token)).andExpect(status().isAccepted())

@@ -52,7 +52,13 @@ final class FiguresJson {
         try {
             root = MAPPER.readTree(body);
         } catch (JacksonException e) {
-            throw new Malformed(e.getOriginalMessage());
+            // our words, with where: the parser's own message quotes its internals
+            var at = e.getLocation();
+            String where = at != null && at.getLineNr() > 0 ? " near line " + at.getLineNr() + ", column "
+                    + at.getColumnNr() : "";
+            String why = e instanceof tools.jackson.core.exc.StreamConstraintsException
+                    ? "it is nested too deeply or holds a value that is too long" : "it is not valid JSON";
+            throw new Malformed("The body could not be read" + where + ": " + why + ".");
         }
         if (root == null || !root.isObject() || !root.has("figures") || !root.get("figures").isArray()) {
             throw new InvalidRequest("figures", "the body must be an object with a 'figures' array");
