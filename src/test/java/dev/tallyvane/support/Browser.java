@@ -96,11 +96,14 @@ public final class Browser implements AutoCloseable {
      * belongs to the page being left (a stale element otherwise, when the new page arrives late).
      */
     public void clickToLoad(String css) {
-        WebElement html = driver.findElement(By.tagName("html"));
+        org.openqa.selenium.JavascriptExecutor js = (org.openqa.selenium.JavascriptExecutor) driver;
+        js.executeScript("window.__tallyvaneLeaving = true");
         find(css).click();
-        new WebDriverWait(driver, Duration.ofSeconds(20)).until(ExpectedConditions.stalenessOf(html));
-        new WebDriverWait(driver, Duration.ofSeconds(20)).until(d -> "complete".equals(
-                ((org.openqa.selenium.JavascriptExecutor) d).executeScript("return document.readyState")));
+        // the mark lives on the old page's window: gone once the new page is there (a script run while the
+        // browser is between the two pages may fail; that is "not yet")
+        new WebDriverWait(driver, Duration.ofSeconds(20)).ignoring(org.openqa.selenium.WebDriverException.class)
+                .until(d -> Boolean.TRUE.equals(js.executeScript(
+                        "return window.__tallyvaneLeaving === undefined && document.readyState === 'complete'")));
     }
 
     public String text() {
