@@ -28,9 +28,13 @@ public class FlagStore {
         this.locations = locations;
     }
 
-    /** Rows to flags, the location codes from the location module (read once per query). */
-    private RowMapper<DriftFlag> mapper() {
-        Map<Long, String> codes = locations.codesById();
+    /**
+     * Rows to flags, the location codes from the location module: the one location's when the query
+     * is about one (the drift watch asks per series and signal), else every code, read once per query.
+     */
+    private RowMapper<DriftFlag> mapper(Long locationId) {
+        Map<Long, String> codes = locationId == null ? locations.codesById()
+                : Map.of(locationId, locations.byId(locationId).getCode());
         return (rs, i) -> new DriftFlag(rs.getLong(1), rs.getLong(2), codes.get(rs.getLong(2)), rs.getString(3),
                 Signal.valueOf(rs.getString(4)), rs.getDouble(5), rs.getDouble(6), rs.getObject(7, LocalDate.class),
                 instant(rs.getTimestamp(8)), instant(rs.getTimestamp(9)), rs.getString(10), instant(rs.getTimestamp(11)),
@@ -43,7 +47,8 @@ public class FlagStore {
 
     public Optional<DriftFlag> open(long locationId, String measure, Signal signal) {
         return jdbc.query("select " + COLUMNS + " from drift_flag f "
-                + "where f.location_id = ? and f.measure = ? and f.signal = ? and f.cleared_at is null", mapper(), locationId,
+                + "where f.location_id = ? and f.measure = ? and f.signal = ? and f.cleared_at is null",
+                mapper(locationId), locationId,
                 measure, signal.name()).stream().findFirst();
     }
 
@@ -69,7 +74,7 @@ public class FlagStore {
     }
 
     public Optional<DriftFlag> byId(long id) {
-        return jdbc.query("select " + COLUMNS + " from drift_flag f where f.id = ?", mapper(), id).stream().findFirst();
+        return jdbc.query("select " + COLUMNS + " from drift_flag f where f.id = ?", mapper(null), id).stream().findFirst();
     }
 
     /** Flags, newest first: open ones only, or all (history), optionally for one location. */
@@ -77,7 +82,7 @@ public class FlagStore {
         String where = (openOnly ? " and f.cleared_at is null" : "") + (locationId == null ? "" : " and f.location_id = "
                 + locationId);
         return jdbc.query("select " + COLUMNS + " from drift_flag f where 1 = 1"
-                + where + " order by f.raised_at desc, f.id desc fetch first " + limit + " rows only", mapper());
+                + where + " order by f.raised_at desc, f.id desc fetch first " + limit + " rows only", mapper(locationId));
     }
 
     /** Counts that change whenever a flag is raised, cleared or acknowledged (for the overview's cache). */
