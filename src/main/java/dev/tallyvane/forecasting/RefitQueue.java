@@ -148,8 +148,18 @@ public class RefitQueue {
         return keys.size();
     }
 
-    /** Queue progress: waiting, running, issued in the last 24 hours, series whose last re-fit failed. */
-    public record Status(long queued, long running, long doneLast24h, long failing) {
+    /**
+     * Queue progress: waiting, running, issued in the last 24 hours, series whose last re-fit failed,
+     * and the newest forecast issued (its id, 0 before the first, and when), so that a page can tell
+     * that a new forecast arrived.
+     */
+    public record Status(long queued, long running, long doneLast24h, long failing, long newestForecast,
+            Instant lastIssuedAt) {
+
+        /** Nothing waiting or running. */
+        public boolean idle() {
+            return queued == 0 && running == 0;
+        }
     }
 
     /** Progress of the whole chain. */
@@ -160,7 +170,9 @@ public class RefitQueue {
     /** Progress of one location's series (all locations when null), for a token scoped to one location. */
     public Status status(Long locationId) {
         Jobs.Counts tasks = jobs.getObject().counts(REFIT, locationId == null ? null : locationId + ":");
+        var newest = issued.newest(locationId);
         return new Status(tasks.waiting(), tasks.running(),
-                issued.issuedSince(clock.instant().minus(Duration.ofHours(24)), locationId), state.failing(locationId));
+                issued.issuedSince(clock.instant().minus(Duration.ofHours(24)), locationId), state.failing(locationId),
+                newest.map(java.util.Map.Entry::getKey).orElse(0L), newest.map(java.util.Map.Entry::getValue).orElse(null));
     }
 }

@@ -6,7 +6,9 @@ import dev.tallyvane.accuracy.TestFlags;
 import dev.tallyvane.account.Role;
 import dev.tallyvane.account.UserService;
 import dev.tallyvane.app.TallyvaneApplication;
+import dev.tallyvane.forecasting.RefitQueue;
 import dev.tallyvane.forecasting.RefitService;
+import dev.tallyvane.forecasting.SettingsService;
 import dev.tallyvane.intake.FigureRules;
 import dev.tallyvane.location.LocationService;
 import dev.tallyvane.support.Browser;
@@ -22,8 +24,11 @@ import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.openqa.selenium.JavascriptExecutor;
 import org.openqa.selenium.Keys;
+import org.openqa.selenium.WebDriverException;
 import org.openqa.selenium.WebElement;
+import org.openqa.selenium.support.ui.WebDriverWait;
 import org.springframework.beans.factory.annotation.Autowired;
 import org.springframework.boot.test.context.SpringBootTest;
 import org.springframework.boot.test.web.server.LocalServerPort;
@@ -54,6 +59,10 @@ class DashboardBrowserTests {
     RefitService refits;
     @Autowired
     ApplicationContext context;
+    @Autowired
+    SettingsService settings;
+    @Autowired
+    RefitQueue queue;
 
     Browser browser;
 
@@ -92,6 +101,10 @@ class DashboardBrowserTests {
         assertThat(browser.text()).contains("QUAY").contains(String.valueOf(DAYS));
         browser.find("input[name=createLocations]").click();
         browser.find("form[action$='/commit'] button[type=submit]").click();
+        // the saved page names the location with a link and says its re-fit is queued
+        assertThat(browser.await("#saved-locations", 20).getText()).contains("QUAY: " + DAYS + " new")
+                .contains("a re-fit is queued");
+        assertThat(browser.find("#saved-locations a").getAttribute("href")).endsWith("/locations/QUAY");
 
         long id = Awaitility.await().atMost(Duration.ofSeconds(30)).pollInterval(Duration.ofMillis(200))
                 .until(() -> locations.all().stream().filter(l -> l.getCode().equals("QUAY")).findFirst()
@@ -155,6 +168,21 @@ class DashboardBrowserTests {
         browser.go("/locations/QUAY");
         assertThat(browser.await("#forecast-chart[data-ready=true]", 20).getAttribute("data-points")).isEqualTo("26");
         assertThat(browser.find("#closedDays").getAttribute("value")).isEqualTo("2026-12-25");
+        assertThat(browser.find("#refit-progress").getText()).contains("Forecast up to date: last re-fit done at")
+                .contains("Europe/Berlin");
+
+        // a re-fit started elsewhere (here by the test, as figures posted by a till would): the open page
+        // notices, and shows the new forecast by loading itself again once the re-fit is done
+        JavascriptExecutor js = (JavascriptExecutor) browser.driver();
+        js.executeScript("window.__tallyvaneBefore = true");
+        settings.save(id, FigureRules.DEFAULT_MEASURE, new SettingsService.SettingsInput(null, 4, null, null, null,
+                null), "olive");
+        queue.refitNow(id);
+        new WebDriverWait(browser.driver(), Duration.ofSeconds(60)).ignoring(WebDriverException.class)
+                .until(d -> Boolean.TRUE.equals(js.executeScript("var c = document.querySelector("
+                        + "'#forecast-chart[data-ready=true]'); return window.__tallyvaneBefore === undefined "
+                        + "&& c !== null && c.getAttribute('data-points') === '24'")));
+        assertThat(browser.all("#forecast-table tbody tr")).hasSize(4);
 
         assertThat(browser.consoleErrors()).as("no script errors or CSP violations").isEmpty();
     }

@@ -57,6 +57,16 @@ class LocationPageController {
         return charts.of(locations.byCode(code));
     }
 
+    /**
+     * Re-fit progress of this location for its page, which asks every few seconds while a re-fit is
+     * waiting or running and shows the new forecast when {@code newestForecast} changes.
+     */
+    @GetMapping(value = "/locations/{code}/progress.json", produces = "application/json")
+    @ResponseBody
+    RefitQueue.Status progress(@PathVariable String code) {
+        return queue.status(locations.byCode(code).getId());
+    }
+
     @PostMapping("/locations/{code}")
     String update(@PathVariable String code, LocationForm form, Model model) {
         try {
@@ -97,6 +107,7 @@ class LocationPageController {
         model.addAttribute("location", l);
         model.addAttribute("form", form);
         model.addAttribute("page", page.of(l));
+        model.addAttribute("progress", queue.status(l.getId()));
         model.addAttribute("settingsForm", settingsForm != null ? settingsForm
                 : SettingsForm.of(settings.settings(l.getId(), FigureRules.DEFAULT_MEASURE), settings.calendar(l.getId())));
         Map<String, String> catalogue = CandidateRegistry.catalogue();

@@ -6,6 +6,7 @@ import org.springframework.stereotype.Controller;
 import org.springframework.ui.Model;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.RequestParam;
+import org.springframework.web.bind.annotation.ResponseBody;
 
 /** The home page: every location at a glance. */
 @Controller
@@ -32,5 +33,12 @@ class OverviewController {
         model.addAttribute("sorts", Overview.Sort.values());
         model.addAttribute("refitStatus", queue.status());
         return "dashboard/overview";
+    }
+
+    /** The chain's re-fit progress, which the overview's counter reads every few seconds while re-fits are under way. */
+    @GetMapping(value = "/progress.json", produces = "application/json")
+    @ResponseBody
+    RefitQueue.Status progress() {
+        return queue.status();
     }
 }

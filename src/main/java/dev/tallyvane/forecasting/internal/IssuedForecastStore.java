@@ -143,4 +143,12 @@ public class IssuedForecastStore {
                 : jdbc.queryForObject("select count(*) from issued_forecast where issued_at >= ? and location_id = ?",
                         Long.class, Timestamp.from(since), locationId);
     }
+
+    /** The id and time of the newest forecast issued for one location (anywhere when null), if any. */
+    public Optional<java.util.Map.Entry<Long, Instant>> newest(Long locationId) {
+        return jdbc.query("select id, issued_at from issued_forecast" + (locationId == null ? "" : " where location_id = ?")
+                + " order by id desc fetch first 1 rows only", (rs, i) -> java.util.Map.entry(rs.getLong(1),
+                        rs.getTimestamp(2).toInstant()), locationId == null ? new Object[0] : new Object[] {locationId})
+                .stream().findFirst();
+    }
 }

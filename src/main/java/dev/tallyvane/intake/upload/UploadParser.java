@@ -87,8 +87,15 @@ final class UploadParser {
      * @param needsNumberStyle the decimal mark could not be told: ask the user
      * @param usedOptions      the options in effect after detection
      */
+    /**
+     * A file as read.
+     *
+     * @param dateOrderMatters some period is written as a date with day and month in numbers
+     *                         (03/04/2026), so how the file orders them changes what it says; false for
+     *                         a file of ISO dates, weeks or months, where "day first" means nothing
+     */
     record Parsed(List<FigureInput> figures, List<FieldProblem> problems, int rowCount, boolean needsDateOrder,
-            boolean needsNumberStyle, UploadOptions usedOptions) {
+            boolean needsNumberStyle, UploadOptions usedOptions, boolean dateOrderMatters) {
     }
 
     static Parsed parse(RawTable file, UploadOptions options) {
@@ -148,7 +155,16 @@ final class UploadParser {
         problems.sort(java.util.Comparator.comparing(FieldProblem::index));
         return new Parsed(figures, problems, table.rows().size(), needsOrder, needsStyle,
                 new UploadOptions(order == null ? UploadOptions.DateOrder.AUTO : order,
-                        style == null ? UploadOptions.NumberStyle.AUTO : style));
+                        style == null ? UploadOptions.NumberStyle.AUTO : style), dateOrderMatters(table, periodColumn));
+    }
+
+    private static boolean dateOrderMatters(RawTable table, String periodColumn) {
+        for (RawTable.Row row : table.rows()) {
+            if (row.cells().get(periodColumn) instanceof RawValue.Text t && DMY.matcher(t.value().trim()).matches()) {
+                return true;
+            }
+        }
+        return false;
     }
 
     /**

@@ -1,10 +1,12 @@
 package dev.tallyvane.intake.upload;
 
 import dev.tallyvane.account.AuditLog;
+import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.intake.FigureInput;
 import dev.tallyvane.intake.IntakeResult;
 import dev.tallyvane.intake.IntakeService;
 import dev.tallyvane.intake.Submitter;
+import dev.tallyvane.intake.internal.FigureStore;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationDetails;
 import dev.tallyvane.location.LocationService;
@@ -12,6 +14,7 @@ import dev.tallyvane.system.InvalidRequest;
 import dev.tallyvane.system.InvalidRequest.FieldProblem;
 import dev.tallyvane.system.TallyvaneProperties;
 import java.time.Clock;
+import java.time.LocalDate;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -33,15 +36,17 @@ public class UploadService {
     private static final java.util.regex.Pattern CONTROL = java.util.regex.Pattern.compile("[\\p{Cntrl}]");
 
     private final UploadStore store;
+    private final FigureStore figures;
     private final IntakeService intake;
     private final LocationService locations;
     private final AuditLog audit;
     private final TallyvaneProperties properties;
     private final Clock clock;
 
-    UploadService(UploadStore store, IntakeService intake, LocationService locations, AuditLog audit,
-            TallyvaneProperties properties, Clock clock) {
+    UploadService(UploadStore store, FigureStore figures, IntakeService intake, LocationService locations,
+            AuditLog audit, TallyvaneProperties properties, Clock clock) {
         this.store = store;
+        this.figures = figures;
         this.intake = intake;
         this.locations = locations;
         this.audit = audit;
@@ -57,9 +62,13 @@ public class UploadService {
      * @param outcome          new / changed / unchanged per location, for the rows that are fine
      * @param needsDateOrder   the user must say whether dates are day/month or month/day
      * @param needsNumberStyle the user must say which mark separates decimals
+     * @param dateOrderMatters the file writes dates such as 03/04/2026, whose reading depends on the order
+     * @param covers           the periods the file's good rows cover, per granularity
+     * @param overlaps         months where monthly totals and daily figures of a location would sit side by side
      */
     public record Preview(Upload upload, int rowCount, List<FieldProblem> problems, Set<String> unknownLocations,
-            IntakeResult outcome, boolean needsDateOrder, boolean needsNumberStyle, UploadOptions usedOptions) {
+            IntakeResult outcome, boolean needsDateOrder, boolean needsNumberStyle, UploadOptions usedOptions,
+            boolean dateOrderMatters, List<Coverage> covers, List<Overlap> overlaps) {
 
         public boolean canCommit() {
             return upload.staged() && problems.isEmpty() && !needsDateOrder && !needsNumberStyle
@@ -68,6 +77,32 @@ public class UploadService {
 
         public long rejectedRows() {
             return problems.stream().map(FieldProblem::index).distinct().count();
+        }
+    }
+
+    /**
+     * The periods a file covers at one granularity.
+     *
+     * @param unit      "day", "week" or "month"
+     * @param periods   how many distinct periods
+     * @param locations how many locations
+     */
+    public record Coverage(String unit, String first, String last, int periods, int locations) {
+    }
+
+    /**
+     * Months of one location and measure that would hold both a monthly total and daily figures
+     * after the commit, and which of them each forecast reads.
+     *
+     * @param monthlyInFile true when the file brings the monthly totals (the days are already kept),
+     *                      false when it brings the days (the monthly totals are already kept)
+     */
+    public record Overlap(String location, String measure, List<String> months, boolean monthlyInFile) {
+
+        /** What the forecast uses, in words (see {@code SeriesReader} and the forecast's default granularity). */
+        public String effect() {
+            return "The weekly forecast (the default where daily figures exist) is built from the daily figures; "
+                    + "the monthly view and any monthly forecast use the monthly total instead of the sum of the days.";
         }
     }
 
@@ -95,8 +130,7 @@ public class UploadService {
         RawTable table = read(name, content);
         UploadParser.Parsed parsed = UploadParser.parse(table, UploadOptions.AUTO);
         long id = store.insert(name, contentType, content, user, clock.instant(), UploadOptions.AUTO);
-        store.updateCounts(id, parsed.rowCount(), (int) parsed.problems().stream().map(FieldProblem::index).distinct()
-                .count(), 0, 0, 0);
+        keepPreviewCounts(id);
         audit.record(user, "UPLOAD_STAGED", "#" + id + " " + name + ", " + parsed.rowCount() + " rows");
         return id;
     }
@@ -121,7 +155,81 @@ public class UploadService {
         problems.sort(java.util.Comparator.comparing(FieldProblem::index));
         List<FigureInput> clean = withoutRows(parsed.figures(), problems);
         return new Preview(upload, parsed.rowCount(), problems, unknown, intake.preview(clean), parsed.needsDateOrder(),
-                parsed.needsNumberStyle(), parsed.usedOptions());
+                parsed.needsNumberStyle(), parsed.usedOptions(), parsed.dateOrderMatters(), coverage(clean),
+                overlaps(clean));
+    }
+
+    /**
+     * The history's counts of a staged upload are its preview's (rows, rejected rows, new, changed,
+     * unchanged), kept again whenever the reading options change; a commit replaces them with what
+     * was saved.
+     */
+    private void keepPreviewCounts(long id) {
+        Preview p = preview(id);
+        store.updateCounts(id, p.rowCount(), (int) p.rejectedRows(), p.outcome().created(), p.outcome().changed(),
+                p.outcome().unchanged());
+    }
+
+    private static List<Coverage> coverage(List<FigureInput> clean) {
+        List<Coverage> out = new ArrayList<>();
+        for (Granularity g : Granularity.values()) {
+            java.util.TreeSet<LocalDate> periods = new java.util.TreeSet<>();
+            Set<String> codes = new java.util.HashSet<>();
+            for (FigureInput f : clean) {
+                if (f.granularity() == g) {
+                    periods.add(f.periodStart());
+                    codes.add(f.locationCode());
+                }
+            }
+            if (!periods.isEmpty()) {
+                out.add(new Coverage(g.name().toLowerCase(Locale.ROOT), g.label(periods.first()), g.label(periods.last()),
+                        periods.size(), codes.size()));
+            }
+        }
+        return out;
+    }
+
+    /**
+     * Months where the file's monthly totals meet daily figures already kept for the same location
+     * and measure, or the file's daily figures meet kept monthly totals. (A file that mixes the two
+     * itself is refused by the parser.)
+     */
+    private List<Overlap> overlaps(List<FigureInput> clean) {
+        record Series(String code, String measure, Granularity granularity) {
+        }
+        java.util.Map<Series, java.util.TreeSet<LocalDate>> months = new java.util.TreeMap<>(
+                java.util.Comparator.comparing(Series::code).thenComparing(Series::measure)
+                        .thenComparing(Series::granularity));
+        for (FigureInput f : clean) {
+            if (f.granularity() == Granularity.DAY || f.granularity() == Granularity.MONTH) {
+                months.computeIfAbsent(new Series(f.locationCode(), f.measure(), f.granularity()),
+                        k -> new java.util.TreeSet<>()).add(f.periodStart().withDayOfMonth(1));
+            }
+        }
+        if (months.isEmpty()) {
+            return List.of();
+        }
+        java.util.Map<String, Long> ids = locations.byCodes(months.keySet().stream().map(Series::code)
+                .collect(Collectors.toSet())).stream().collect(Collectors.toMap(Location::getCode, Location::getId));
+        List<Overlap> out = new ArrayList<>();
+        months.forEach((series, inFile) -> {
+            Long id = ids.get(series.code());
+            if (id == null) {
+                return;
+            }
+            Granularity other = series.granularity() == Granularity.DAY ? Granularity.MONTH : Granularity.DAY;
+            java.util.TreeSet<LocalDate> kept = new java.util.TreeSet<>();
+            for (FigureStore.Stored s : figures.read(id, series.measure(), Set.of(other), null, inFile.first(),
+                    inFile.last().plusMonths(1).minusDays(1))) {
+                kept.add(s.periodStart().withDayOfMonth(1));
+            }
+            kept.retainAll(inFile);
+            if (!kept.isEmpty()) {
+                out.add(new Overlap(series.code(), series.measure(),
+                        kept.stream().map(Granularity.MONTH::label).toList(), series.granularity() == Granularity.MONTH));
+            }
+        });
+        return out;
     }
 
     @Transactional
@@ -131,6 +239,7 @@ public class UploadService {
             throw new UploadAlreadyFinished(id, upload.status());
         }
         store.updateOptions(id, options);
+        keepPreviewCounts(id);
     }
 
     /**

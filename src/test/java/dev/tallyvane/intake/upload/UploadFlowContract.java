@@ -139,6 +139,95 @@ abstract class UploadFlowContract {
         assertThat(rows(code)).isEqualTo(3);
     }
 
+    /** The upload table's counts as the history shows them: rows, rejected, new, changed, unchanged. */
+    java.util.List<Integer> historyCounts(long id) {
+        return jdbc.queryForObject("select row_count, rejected_count, new_count, changed_count, unchanged_count "
+                + "from upload where id = ?", (rs, i) -> java.util.List.of(rs.getInt(1), rs.getInt(2), rs.getInt(3),
+                        rs.getInt(4), rs.getInt(5)), id);
+    }
+
+    /**
+     * The history tells what the preview told while an upload waits (also after the reading options
+     * change), and what was saved once it is committed; before, a staged upload showed 0 new and 0
+     * changed with only the parser's rejections, whatever its preview said.
+     */
+    @Test
+    void theHistoryCountsAreThePreviewsWhileStagedAndWhatWasSavedOnceCommitted() throws Exception {
+        long first = upload("first.csv", ("location,period,amount\n" + code + ",2026-11-01,100\n" + code
+                + ",2026-11-02,200\n").getBytes(StandardCharsets.UTF_8));
+        assertThat(historyCounts(first)).containsExactly(2, 0, 2, 0, 0);
+        mvc.perform(post("/uploads/{id}/commit", first).with(bookkeeper).with(csrf())).andExpect(status().isFound());
+        assertThat(historyCounts(first)).containsExactly(2, 0, 2, 0, 0);
+
+        // 1 unchanged, 1 changed, 1 new, a duplicate and a future day rejected (rule checks, not parsing)
+        String mixed = "location,period,amount\n" + code + ",2026-11-01,100\n" + code + ",2026-11-02,250\n" + code
+                + ",2026-11-03,300\n" + code + ",2026-11-03,300\n" + code + ",2031-01-01,5\n";
+        long second = upload("mixed.csv", mixed.getBytes(StandardCharsets.UTF_8));
+        assertThat(historyCounts(second)).as("rows, rejected, new, changed, unchanged").containsExactly(5, 2, 1, 1, 1);
+        mvc.perform(get("/uploads").with(bookkeeper)).andExpect(status().isOk())
+                .andExpect(content().string(containsString("waiting for review")));
+
+        // dates that need their order: nothing is read until the user says; then the counts follow
+        long third = upload("ambiguous.csv", ("location,period,amount\n" + code + ",03/04/2026,10\n" + code
+                + ",05/06/2026,11\n").getBytes(StandardCharsets.UTF_8));
+        assertThat(historyCounts(third).get(2)).isZero();
+        mvc.perform(post("/uploads/{id}/options", third).param("dateOrder", "DAY_FIRST").param("numberStyle", "AUTO")
+                .with(bookkeeper).with(csrf())).andExpect(status().isFound());
+        assertThat(historyCounts(third)).containsExactly(2, 0, 2, 0, 0);
+        mvc.perform(post("/uploads/{id}/commit", third).with(bookkeeper).with(csrf())).andExpect(status().isFound());
+        assertThat(historyCounts(third)).containsExactly(2, 0, 2, 0, 0);
+        assertThat(rows(code)).isEqualTo(4);
+    }
+
+    /** After saving, the page names each location touched, links to it and says whether a re-fit is queued. */
+    @Test
+    void afterSavingThePageListsTheLocationsTouchedWithLinksAndTheRefit() throws Exception {
+        String other = code + "Y";
+        locations.create(new LocationDetails(other, "Harbour Stand", "Europe/Berlin", "EUR", null, null));
+        mvc.perform(post("/uploads/{id}/commit", upload("other.csv", ("location,period,amount\n" + other
+                + ",2026-11-01,70\n").getBytes(StandardCharsets.UTF_8))).with(bookkeeper).with(csrf()))
+                .andExpect(status().isFound());
+        long id = upload("two.csv", ("location,period,amount\n" + code + ",2026-11-01,100\n" + other
+                + ",2026-11-01,70\n").getBytes(StandardCharsets.UTF_8));
+        var saved = mvc.perform(post("/uploads/{id}/commit", id).with(bookkeeper).with(csrf()))
+                .andExpect(status().isFound()).andReturn();
+        mvc.perform(get("/uploads/{id}", id).with(bookkeeper).flashAttrs(saved.getFlashMap()))
+                .andExpect(status().isOk())
+                .andExpect(content().string(containsString("href=\"/locations/" + code + "\"")))
+                .andExpect(content().string(containsString("href=\"/locations/" + other + "\"")))
+                .andExpect(content().string(containsString("1 new, 0 changed, 0 unchanged; a re-fit is queued")))
+                .andExpect(content().string(containsString("0 new, 0 changed, 1 unchanged; nothing changed")));
+    }
+
+    /**
+     * The preview says which periods the file covers, warns where monthly totals would sit beside
+     * daily figures of the same location and month (saying which the forecast uses), and does not
+     * talk of "day first" for a file of months.
+     */
+    @Test
+    void thePreviewSaysWhatTheFileCoversAndWarnsWhereMonthlyTotalsMeetDays() throws Exception {
+        mvc.perform(post("/uploads/{id}/commit", upload("days.csv", ("location,period,amount\n" + code
+                + ",2026-11-01,100\n" + code + ",2026-11-02,200\n").getBytes(StandardCharsets.UTF_8)))
+                .with(bookkeeper).with(csrf())).andExpect(status().isFound());
+        long months = upload("months.csv", ("location,period,amount\n" + code + ",2026-09,3000\n" + code
+                + ",2026-10,3100\n" + code + ",2026-11,3200\n").getBytes(StandardCharsets.UTF_8));
+        String page = mvc.perform(get("/uploads/{id}", months).with(bookkeeper)).andExpect(status().isOk()).andReturn()
+                .getResponse().getContentAsString();
+        assertThat(page).contains("3 months from 2026-09 to 2026-11").contains("for 1 location")
+                .contains("this file brings monthly totals for 2026-11, where daily figures are already kept.")
+                .contains("The weekly forecast (the default where daily figures exist) is built from the daily figures")
+                .contains("periods as written").doesNotContain("day first").doesNotContain("id=\"dateOrder\"");
+
+        // the other way round: daily figures for a month whose total is kept
+        mvc.perform(post("/uploads/{id}/commit", months).with(bookkeeper).with(csrf())).andExpect(status().isFound());
+        long days = upload("more-days.csv", ("location,period,amount\n" + code + ",15/10/2026,90\n" + code
+                + ",31/10/2026,95\n").getBytes(StandardCharsets.UTF_8));
+        assertThat(mvc.perform(get("/uploads/{id}", days).with(bookkeeper)).andReturn().getResponse()
+                .getContentAsString()).contains("2 days from 2026-10-15 to 2026-10-31")
+                .contains("this file brings daily figures for 2026-10, where a monthly total is already kept.")
+                .contains("dates day first").contains("id=\"dateOrder\"");
+    }
+
     @Test
     void xlsxWithDateCellsIsReadAndCommitted() throws Exception {
         byte[] xlsx = Workbooks.figures(new Workbooks.Line(code, LocalDate.of(2026, 11, 3), 321.5),
