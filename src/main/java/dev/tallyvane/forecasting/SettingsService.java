@@ -56,22 +56,40 @@ public class SettingsService {
      */
     @Transactional
     public ForecastSettings save(long locationId, String measure, SettingsInput in, String actor) {
+        List<FieldProblem> problems = problems(in);
+        if (!problems.isEmpty()) {
+            throw new InvalidRequest("The settings have invalid values.", problems);
+        }
+        Granularity granularity = granularityOf(in);
+        Metric metric = in.metric() != null && !in.metric().isBlank() ? Metric.of(in.metric()) : Metric.MSE;
+        Set<String> candidates = new TreeSet<>(in.candidates() == null ? List.of() : in.candidates());
+        double[] weights = in.weights() != null && !in.weights().isEmpty()
+                ? in.weights().stream().mapToDouble(d -> d == null ? Double.NaN : d).toArray() : null;
+        return write(locationId, measure, in, granularity, metric, candidates, weights, actor);
+    }
+
+    private static Granularity granularityOf(SettingsInput in) {
+        return in.granularity() != null && !in.granularity().isBlank() && !in.granularity().equalsIgnoreCase("auto")
+                ? Granularity.of(in.granularity()) : null;
+    }
+
+    /**
+     * Every bad value of the settings, each with its field; empty when they can be saved. The page
+     * adds these to its own typing problems, so that all of them are named at once.
+     */
+    public List<FieldProblem> problems(SettingsInput in) {
         List<FieldProblem> problems = new ArrayList<>();
-        Granularity granularity = null;
-        if (in.granularity() != null && !in.granularity().isBlank() && !in.granularity().equalsIgnoreCase("auto")) {
-            try {
-                granularity = Granularity.of(in.granularity());
-            } catch (IllegalArgumentException e) {
-                problems.add(new FieldProblem(null, "granularity", e.getMessage() + " (or auto)"));
-            }
+        try {
+            granularityOf(in);
+        } catch (IllegalArgumentException e) {
+            problems.add(new FieldProblem(null, "granularity", e.getMessage() + " (or auto)"));
         }
         if (in.horizon() != null && (in.horizon() < 1 || in.horizon() > ForecastRequest.MAX_HORIZON)) {
             problems.add(new FieldProblem(null, "horizon", "use 1–" + ForecastRequest.MAX_HORIZON + " periods"));
         }
-        Metric metric = Metric.MSE;
         if (in.metric() != null && !in.metric().isBlank()) {
             try {
-                metric = Metric.of(in.metric());
+                Metric.of(in.metric());
             } catch (IllegalArgumentException e) {
                 problems.add(new FieldProblem(null, "metric", e.getMessage()));
             }
@@ -90,7 +108,7 @@ public class SettingsService {
             try {
                 WeightedMovingAverage.validate(weights);
             } catch (IllegalArgumentException e) {
-                problems.add(new FieldProblem(null, "weights", e.getMessage()));
+                problems.add(new FieldProblem(null, "weights", e.getMessage().replaceFirst("^weights:? ", "")));
             }
         }
         if (candidates.contains(dev.tallyvane.engine.model.WeightedMovingAverage.OWNER_KEY) && weights == null) {
@@ -99,9 +117,11 @@ public class SettingsService {
         if (in.seasonalPeriod() != null && (in.seasonalPeriod() < 1 || in.seasonalPeriod() > 400)) {
             problems.add(new FieldProblem(null, "seasonalPeriod", "use 1 (no season) to 400"));
         }
-        if (!problems.isEmpty()) {
-            throw new InvalidRequest("The settings have invalid values.", problems);
-        }
+        return problems;
+    }
+
+    private ForecastSettings write(long locationId, String measure, SettingsInput in, Granularity granularity,
+            Metric metric, Set<String> candidates, double[] weights, String actor) {
         jdbc.update("delete from forecast_settings where location_id = ? and measure = ?", locationId, measure);
         jdbc.update("insert into forecast_settings (location_id, measure, granularity, horizon, metric, candidates, weights, "
                 + "seasonal_period, updated_at, updated_by) values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", locationId, measure,

@@ -205,12 +205,20 @@ class OverviewIntegrationTests {
                         .param("candidates", "poly1", "nonsense").param("weights", "0.5, x")
                         .param("closedDays", "2026-12-25\n25.12.2026"))
                 .andExpect(status().isOk()).andReturn().getResponse().getContentAsString();
-        assertThat(html).contains("The settings were not saved").contains("weights").contains("entry 2 (&#39;x&#39;)")
-                .contains("closedDays").contains("entry 2 (&#39;25.12.2026&#39;)");
+        // a typo in one field no longer hides bad values in the others: all are named, by their labels on the page
+        assertThat(html).contains("The settings were not saved")
+                .contains("<strong>Your moving-average weights</strong>: <span>entry 2 (&#39;x&#39;)")
+                .contains("<strong>Closed days</strong>: <span>entry 2 (&#39;25.12.2026&#39;)")
+                .contains("<strong>Forecast by</strong>").contains("<strong>Periods ahead</strong>: <span>use 1–")
+                .contains("<strong>Candidates to compare</strong>: <span>unknown candidate &#39;nonsense&#39;");
+        // the case seen from outside: a horizon of -3 and a negative weight went unnamed beside a typo
         html = mvc.perform(post("/locations/L003/settings").with(owner).with(csrf())
-                        .param("granularity", "fortnight").param("horizon", "500").param("candidates", "nonsense"))
+                        .param("horizon", "-3").param("weights", "0.5, -0.2").param("seasonalPeriod", "x"))
                 .andReturn().getResponse().getContentAsString();
-        assertThat(html).contains("granularity").contains("horizon").contains("unknown candidate");
+        assertThat(html).contains("<strong>Season length in periods</strong>: <span>&#39;x&#39; is not a whole number")
+                .contains("<strong>Periods ahead</strong>: <span>use 1–")
+                .contains("<strong>Your moving-average weights</strong>: <span>w2 = -0.2 must be positive")
+                .doesNotContain("<strong>horizon</strong>").doesNotContain("<strong>weights</strong>");
         assertThat(settings.settings(l.getId(), FigureRules.DEFAULT_MEASURE).horizon()).isNull();
         assertThat(settings.calendar(l.getId())).isEmpty();
 

@@ -155,8 +155,8 @@ class DashboardBrowserTests {
         browser.find("#closedDays").sendKeys("2026-12-25\n2026-13-01");
         browser.find("#settings button[type=submit]").click();
         String problems = browser.await("#settings .alert.error", 10).getText();
-        assertThat(problems).contains("horizon").contains("'six' is not a whole number")
-                .contains("closedDays").contains("entry 2 ('2026-13-01') is not a date");
+        assertThat(problems).contains("Periods ahead: 'six' is not a whole number")
+                .contains("Closed days: entry 2 ('2026-13-01') is not a date");
         browser.find("#horizon").clear();
         browser.find("#horizon").sendKeys("6");
         browser.find("#closedDays").clear();

@@ -85,7 +85,7 @@ class LocationPageController {
             RedirectAttributes redirect) {
         Location l = locations.byCode(code);
         try {
-            SettingsForm.Parsed p = form.parse();
+            SettingsForm.Parsed p = form.parse(settings::problems);
             settings.saveWithCalendar(l.getId(), FigureRules.DEFAULT_MEASURE, p.input(), p.closed(), p.holidays(),
                     user.getName());
         } catch (InvalidRequest e) {
@@ -113,5 +113,6 @@ class LocationPageController {
         Map<String, String> catalogue = CandidateRegistry.catalogue();
         model.addAttribute("catalogue", catalogue);
         model.addAttribute("metrics", Metric.values());
+        model.addAttribute("settingsLabels", SettingsForm.LABELS);
     }
 }

@@ -9,8 +9,12 @@ import java.time.LocalDate;
 import java.time.format.DateTimeParseException;
 import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.Collections;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
+import java.util.function.Function;
 import java.util.stream.Collectors;
 
 /**
@@ -48,12 +52,48 @@ record SettingsForm(String granularity, String horizon, String metric, List<Stri
     }
 
     /**
-     * Parses the text fields.
-     *
-     * @throws InvalidRequest naming every field (and entry) that is not a number or a date
+     * The labels the form shows, by field: problems are named with them, and the page's labels are
+     * read from here, so the two cannot drift apart.
      */
-    Parsed parse() {
+    static final Map<String, String> LABELS = labels();
+
+    private static Map<String, String> labels() {
+        Map<String, String> l = new LinkedHashMap<>();
+        l.put("granularity", "Forecast by");
+        l.put("horizon", "Periods ahead");
+        l.put("metric", "Choose the model by");
+        l.put("seasonalPeriod", "Season length in periods");
+        l.put("weights", "Your moving-average weights");
+        l.put("candidates", "Candidates to compare");
+        l.put("closedDays", "Closed days");
+        l.put("holidays", "Public holidays (open, but unusual)");
+        return Collections.unmodifiableMap(l);
+    }
+
+    /**
+     * Parses the text fields and checks the values with {@code check} (the settings' own rules), so
+     * that a typo in one field does not hide a bad value in another.
+     *
+     * @throws InvalidRequest naming every bad field by its label on the page (and the entry)
+     */
+    Parsed parse(Function<SettingsInput, List<FieldProblem>> check) {
         List<FieldProblem> problems = new ArrayList<>();
+        Parsed parsed = parse(problems);
+        // a field that could not be read is absent from the values, so the check says nothing more of it
+        problems.addAll(check.apply(parsed.input()));
+        if (!problems.isEmpty()) {
+            throw new InvalidRequest("The settings have invalid values.", problems.stream()
+                    .map(p -> new FieldProblem(p.index(), LABELS.getOrDefault(p.field(), p.field()), p.reason()))
+                    .toList());
+        }
+        return parsed;
+    }
+
+    /**
+     * Parses the text fields; a field that cannot be read is left out of the values and reported in
+     * {@code problems} (weights: the entries that are numbers are kept).
+     */
+    private Parsed parse(List<FieldProblem> problems) {
         Integer h = integer("horizon", horizon, problems);
         Integer m = integer("seasonalPeriod", seasonalPeriod, problems);
         List<Double> w = new ArrayList<>();
@@ -68,9 +108,6 @@ record SettingsForm(String granularity, String horizon, String metric, List<Stri
         }
         List<LocalDate> closed = dates("closedDays", closedDays, problems);
         List<LocalDate> hols = dates("holidays", holidays, problems);
-        if (!problems.isEmpty()) {
-            throw new InvalidRequest("The settings have invalid values.", problems);
-        }
         return new Parsed(new SettingsInput(granularity, h, metric, candidates, w.isEmpty() ? null : w, m), closed, hols);
     }
 
