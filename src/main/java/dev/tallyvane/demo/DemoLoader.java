@@ -7,7 +7,6 @@ import dev.tallyvane.forecasting.RefitService;
 import dev.tallyvane.forecasting.SettingsService;
 import dev.tallyvane.intake.FigureInput;
 import dev.tallyvane.intake.IntakeService;
-import dev.tallyvane.intake.Source;
 import dev.tallyvane.intake.Submitter;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationDetails;
@@ -148,7 +147,7 @@ class DemoLoader implements ApplicationRunner {
             figures.add(new FigureInput(figures.size(), d.code(), d.measure(), Granularity.DAY, d.day(),
                     BigDecimal.valueOf(d.amount())));
         }
-        intake.record(figures, new Submitter("demo", Source.DEMO, null, null), "item");
+        intake.record(figures, Submitter.demo(), "item");
     }
 
     private void refitAll() {

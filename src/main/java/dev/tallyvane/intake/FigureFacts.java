@@ -44,19 +44,24 @@ public class FigureFacts {
 
     /** A current figure for the detail page. */
     public record Recent(String measure, String granularity, LocalDate period, BigDecimal amount, Instant recordedAt,
-            String source, String actor, int revisions) {
+            String source, String actor, int revisions, String note) {
+
+        /** The period as written in files and the API: 2026-11-30, 2026-W48 or 2026-11. */
+        public String label() {
+            return dev.tallyvane.engine.series.Granularity.of(granularity).label(period);
+        }
     }
 
     @Transactional(readOnly = true)
     public List<Recent> recent(long locationId, int limit) {
         return jdbc.query("select f.measure, f.granularity, f.period_start, f.amount, f.recorded_at, f.source, f.actor, "
                 + "(select count(*) from figure_revision r where r.location_id = f.location_id and r.measure = f.measure "
-                + "and r.granularity = f.granularity and r.period_start = f.period_start) "
+                + "and r.granularity = f.granularity and r.period_start = f.period_start), f.note "
                 + "from figure_revision f where f.location_id = ? and f.superseded_at is null "
                 + "order by f.period_start desc, f.measure fetch first " + limit + " rows only",
                 (rs, i) -> new Recent(rs.getString(1), rs.getString(2).toLowerCase(java.util.Locale.ROOT),
                         rs.getObject(3, LocalDate.class), rs.getBigDecimal(4).stripTrailingZeros(),
-                        rs.getTimestamp(5).toInstant(), rs.getString(6), rs.getString(7), rs.getInt(8)),
+                        rs.getTimestamp(5).toInstant(), rs.getString(6), rs.getString(7), rs.getInt(8), rs.getString(9)),
                 locationId);
     }
 

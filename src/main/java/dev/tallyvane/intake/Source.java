@@ -1,4 +1,4 @@
 package dev.tallyvane.intake;
 
 /** Where a recorded value came from. */
-public enum Source { API, UPLOAD, DEMO }
+public enum Source { API, UPLOAD, DEMO, CORRECTION }

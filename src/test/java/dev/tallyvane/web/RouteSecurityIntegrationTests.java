@@ -142,7 +142,7 @@ class RouteSecurityIntegrationTests {
         if (p.startsWith("/tokens") || p.startsWith("/users") || p.startsWith("/audit")) {
             return Role.OWNER;
         }
-        if (p.startsWith("/uploads")) {
+        if (p.startsWith("/uploads") || (r.changes() && p.equals("/locations/{code}/figures"))) {
             return Role.BOOKKEEPER;
         }
         if (r.changes() && (p.startsWith("/locations") || p.equals("/refits") || p.startsWith("/flags"))) {

@@ -95,7 +95,8 @@ public class FigureStore {
         for (int i = 0; i < revisions.size(); i += BATCH) {
             List<NewRevision> chunk = revisions.subList(i, Math.min(revisions.size(), i + BATCH));
             jdbc.batchUpdate("insert into figure_revision (location_id, measure, granularity, period_start, amount, "
-                    + "recorded_at, source, actor, upload_id) values (?, ?, ?, ?, ?, ?, ?, ?, ?)", chunk, chunk.size(),
+                    + "recorded_at, source, actor, upload_id, note) values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", chunk,
+                    chunk.size(),
                     (ps, r) -> {
                         ps.setLong(1, r.key().locationId());
                         ps.setString(2, r.key().measure());
@@ -110,6 +111,7 @@ public class FigureStore {
                         } else {
                             ps.setLong(9, submitter.uploadId());
                         }
+                        ps.setString(10, submitter.note());
                     });
         }
     }
@@ -125,7 +127,8 @@ public class FigureStore {
             }
             CopyManager copy = connection.unwrap(PGConnection.class).getCopyAPI();
             String tail = "," + at + "," + submitter.source().name() + "," + csv(submitter.actor()) + ","
-                    + (submitter.uploadId() == null ? "" : submitter.uploadId()) + "\n";
+                    + (submitter.uploadId() == null ? "" : submitter.uploadId()) + ","
+                    + (submitter.note() == null ? "" : csv(submitter.note())) + "\n";
             StringBuilder sb = new StringBuilder(revisions.size() * 80);
             for (NewRevision r : revisions) {
                 sb.append(r.key().locationId()).append(',').append(csv(r.key().measure())).append(',')
@@ -133,7 +136,7 @@ public class FigureStore {
                         .append(r.amount().toPlainString()).append(tail);
             }
             copy.copyIn("copy figure_revision (location_id, measure, granularity, period_start, amount, recorded_at, "
-                    + "source, actor, upload_id) from stdin with (format csv)", new StringReader(sb.toString()));
+                    + "source, actor, upload_id, note) from stdin with (format csv)", new StringReader(sb.toString()));
             return true;
         } catch (SQLException | IOException e) {
             throw new DataAccessResourceFailureException("COPY into figure_revision failed: " + e.getMessage(), e);
