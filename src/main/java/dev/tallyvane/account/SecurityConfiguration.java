@@ -88,7 +88,7 @@ class SecurityConfiguration {
         http.authorizeHttpRequests(a -> a
                         .requestMatchers("/login", "/setup", "/css/**", "/js/**", "/img/**", "/webjars/**",
                                 "/favicon.ico", "/actuator/health", "/actuator/health/**", "/error", "/email/unsubscribe").permitAll()
-                        .requestMatchers("/tokens/**", "/users/**", "/audit/**").hasRole(Role.OWNER.name())
+                        .requestMatchers("/tokens/**", "/users/**", "/audit/**", "/measures/**").hasRole(Role.OWNER.name())
                         .requestMatchers(HttpMethod.POST, "/locations/*/figures").hasRole(Role.BOOKKEEPER.name())
                         .requestMatchers(HttpMethod.POST, "/locations/**", "/refits", "/flags/**")
                         .hasRole(Role.OWNER.name())

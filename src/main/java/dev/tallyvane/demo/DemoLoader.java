@@ -48,14 +48,16 @@ class DemoLoader implements ApplicationRunner {
     private final UserService users;
     private final LocationService locations;
     private final IntakeService intake;
+    private final dev.tallyvane.intake.Measures measures;
     private final RefitService refits;
     private final SettingsService settings;
     private final Clock clock;
 
     DemoLoader(@Value("${tallyvane.demo.enabled:false}") boolean enabled,
             @Value("${tallyvane.summary.dashboard-url:http://localhost:8080}") String url, UserService users,
-            LocationService locations, IntakeService intake, RefitService refits, SettingsService settings, Clock clock,
-            org.springframework.core.env.Environment environment) {
+            LocationService locations, IntakeService intake, dev.tallyvane.intake.Measures measures, RefitService refits,
+            SettingsService settings, Clock clock, org.springframework.core.env.Environment environment) {
+        this.measures = measures;
         this.enabled = enabled;
         this.url = url;
         this.environment = environment;
@@ -138,11 +140,25 @@ class DemoLoader implements ApplicationRunner {
         return sb.toString();
     }
 
+    /** The demo's measures besides net sales: cake orders at the harbour, and the till's transactions. */
+    private void declare(List<String> used) {
+        java.util.Set<String> wanted = new java.util.TreeSet<>(used);
+        wanted.add("transactions"); // posted by demo/post-from-pos.sh
+        java.util.Map<String, String> words = java.util.Map.of("cake_orders", "whole cakes ordered ahead",
+                "transactions", "number of sales at the till");
+        for (String m : wanted) {
+            if (!measures.names().contains(m)) {
+                measures.declare(m, words.getOrDefault(m, m.replace('_', ' ')), "demo");
+            }
+        }
+    }
+
     private void record(List<DemoScenario.Day> days) {
         if (days.isEmpty()) {
             return;
         }
         List<FigureInput> figures = new ArrayList<>(days.size());
+        declare(days.stream().map(DemoScenario.Day::measure).distinct().toList());
         for (DemoScenario.Day d : days) {
             figures.add(new FigureInput(figures.size(), d.code(), d.measure(), Granularity.DAY, d.day(),
                     BigDecimal.valueOf(d.amount())));

@@ -27,6 +27,7 @@ public class FigureRules {
 
     private final TallyvaneProperties properties;
     private final Clock clock;
+    private final dev.tallyvane.intake.internal.MeasureStore measures;
 
     /**
      * Why a submitted text cannot be taken, or null when it can: control characters (U+0000–U+001F
@@ -51,9 +52,10 @@ public class FigureRules {
         return plain.length() <= 24 ? plain : amount.stripTrailingZeros().toString();
     }
 
-    FigureRules(TallyvaneProperties properties, Clock clock) {
+    FigureRules(TallyvaneProperties properties, Clock clock, dev.tallyvane.intake.internal.MeasureStore measures) {
         this.properties = properties;
         this.clock = clock;
+        this.measures = measures;
     }
 
     /**
@@ -71,6 +73,7 @@ public class FigureRules {
         LocalDate earliest = properties.intake().earliestDate();
         int tolerance = properties.intake().futureToleranceDays();
         Map<String, LocalDate> todayByZone = new HashMap<>();
+        Set<String> declared = new java.util.LinkedHashSet<>(measures.names());
         for (FigureInput f : figures) {
             Location location = locations.get(f.locationCode());
             int i = f.index();
@@ -90,6 +93,8 @@ public class FigureRules {
             if (!MEASURE.matcher(f.measure()).matches()) {
                 problems.add(new FieldProblem(i, "measure", "'" + f.measure() + "' is not a measure name: use lower-case "
                         + "letters, digits and '_', e.g. net_sales"));
+            } else if (Measures.undeclared(f.measure(), declared) != null) {
+                problems.add(new FieldProblem(i, "measure", Measures.undeclared(f.measure(), declared)));
             }
             LocalDate today = todayByZone.computeIfAbsent(location == null ? "" : location.getTimeZone(),
                     z -> LocalDate.now(z.isEmpty() ? clock : clock.withZone(java.time.ZoneId.of(z))));

@@ -29,7 +29,7 @@ class TableOwnershipTests {
     static final Map<String, Set<String>> OWNERS = Map.of(
             "location", Set.of("location"),
             "account", Set.of("app_user", "api_token", "audit_event", "first_run_setup"),
-            "intake", Set.of("figure_revision", "idempotency_record", "upload"),
+            "intake", Set.of("figure_revision", "idempotency_record", "upload", "measure"),
             "forecasting", Set.of("forecast_settings", "calendar_day", "series_state", "issued_forecast",
                     "issued_forecast_point", "series_fit"),
             "accuracy", Set.of("forecast_error", "drift_flag", "accuracy_glance", "accuracy_series"),

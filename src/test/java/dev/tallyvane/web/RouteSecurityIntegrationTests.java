@@ -139,7 +139,7 @@ class RouteSecurityIntegrationTests {
     /** The least role each page route needs, written out here independently of the security configuration. */
     static Role needed(Route r) {
         String p = r.pattern();
-        if (p.startsWith("/tokens") || p.startsWith("/users") || p.startsWith("/audit")) {
+        if (p.startsWith("/tokens") || p.startsWith("/users") || p.startsWith("/audit") || p.startsWith("/measures")) {
             return Role.OWNER;
         }
         if (p.startsWith("/uploads") || (r.changes() && p.equals("/locations/{code}/figures"))) {

@@ -57,14 +57,23 @@ class FiguresApi {
     private final SeriesReader reader;
     private final LocationService locations;
     private final TallyvaneProperties properties;
+    private final dev.tallyvane.intake.Measures measures;
 
     FiguresApi(FigurePosting posting, IntakeService intake, SeriesReader reader, LocationService locations,
-            TallyvaneProperties properties) {
+            TallyvaneProperties properties, dev.tallyvane.intake.Measures measures) {
         this.posting = posting;
+        this.measures = measures;
         this.intake = intake;
         this.reader = reader;
         this.locations = locations;
         this.properties = properties;
+    }
+
+    @Operation(summary = "The measures figures may name", description = "Declared by the owner on the Measures "
+            + "page; a figure naming any other measure is refused with the nearest name suggested.")
+    @GetMapping(path = "/measures", produces = MediaType.APPLICATION_JSON_VALUE)
+    List<dev.tallyvane.intake.Measures.Measure> measures() {
+        return measures.all();
     }
 
     /** The request body, for the OpenAPI document (the body is read and checked item by item). */
