@@ -62,6 +62,7 @@ class SecurityConfiguration {
 
     @Bean
     @Order(1)
+    @org.springframework.boot.autoconfigure.condition.ConditionalOnWebApplication // not for one-off console commands
     SecurityFilterChain api(HttpSecurity http, TokenService tokens) throws Exception {
         http.securityMatcher("/api/**")
                 .csrf(c -> c.disable())
@@ -82,12 +83,14 @@ class SecurityConfiguration {
 
     @Bean
     @Order(2)
+    @org.springframework.boot.autoconfigure.condition.ConditionalOnWebApplication // not for one-off console commands
     SecurityFilterChain web(HttpSecurity http, UserService users, java.time.Clock clock,
             @org.springframework.beans.factory.annotation.Value("${tallyvane.security.login-attempts-per-minute:20}")
             int attemptsPerMinute) throws Exception {
         http.authorizeHttpRequests(a -> a
                         .requestMatchers("/login", "/setup", "/css/**", "/js/**", "/img/**", "/webjars/**",
-                                "/favicon.ico", "/actuator/health", "/actuator/health/**", "/error", "/email/unsubscribe").permitAll()
+                                "/favicon.ico", "/actuator/health", "/actuator/health/**", "/error", "/email/unsubscribe",
+                                "/password-reset").permitAll()
                         .requestMatchers("/tokens/**", "/users/**", "/audit/**", "/measures/**").hasRole(Role.OWNER.name())
                         .requestMatchers(HttpMethod.POST, "/locations/*/figures").hasRole(Role.BOOKKEEPER.name())
                         .requestMatchers(HttpMethod.POST, "/locations/**", "/refits", "/flags/**")

@@ -160,6 +160,67 @@ public class UserService implements UserDetailsService {
         audit.record(actor, "PASSWORD_RESET", user.getUsername());
     }
 
+    /**
+     * A user changes their own password: the current one must be given.
+     *
+     * @throws InvalidRequest naming the field ("current", "password", "passwordAgain")
+     */
+    @Transactional
+    public void changeOwnPassword(String username, String current, String password, String again) {
+        AppUser user = users.findByUsernameIgnoreCase(username).orElseThrow(() -> new InvalidRequest("user",
+                "no such user"));
+        List<FieldProblem> problems = new ArrayList<>();
+        if (current == null || !encoder.matches(current, user.getPasswordHash())) {
+            problems.add(new FieldProblem(null, "current", "this is not your current password"));
+        }
+        problems.addAll(passwordProblems(password, again));
+        if (problems.isEmpty() && password.equals(current)) {
+            problems.add(new FieldProblem(null, "password", "choose a password different from the current one"));
+        }
+        if (!problems.isEmpty()) {
+            throw new InvalidRequest("The password was not changed.", problems);
+        }
+        user.setPasswordHash(encoder.encode(password));
+        audit.record(user.getUsername(), "PASSWORD_CHANGED", user.getUsername() + " changed their own password");
+    }
+
+    /** Sets a password through a reset link (already checked and spent by the caller). */
+    @Transactional
+    void setPasswordFromLink(long id, String password) {
+        AppUser user = users.findById(id).orElseThrow(() -> new InvalidRequest("user", "no such user"));
+        user.setPasswordHash(encoder.encode(password));
+        user.loginSucceeded();
+        audit.record(user.getUsername(), "PASSWORD_RESET_BY_LINK", user.getUsername());
+    }
+
+    /**
+     * Recovery from the console for a lost password (the command {@code reset-password}): gives the
+     * user a new random password, enables and unlocks the account, and returns the password to print.
+     */
+    @Transactional
+    public String recoverFromConsole(String username) {
+        AppUser user = users.findByUsernameIgnoreCase(username == null ? "" : username.trim())
+                .orElseThrow(() -> new InvalidRequest("user", "no user '" + username + "'; the users are "
+                        + users.findAllByOrderByUsernameAsc().stream().map(AppUser::getUsername)
+                                .collect(java.util.stream.Collectors.joining(", "))));
+        String password = PasswordResets.randomPassword();
+        user.setPasswordHash(encoder.encode(password));
+        user.setEnabled(true);
+        user.loginSucceeded();
+        audit.record("console", "PASSWORD_RECOVERED", user.getUsername() + " (from the command line)");
+        return password;
+    }
+
+    /** A user's e-mail address and whether they may sign in, for a reset link. */
+    record LinkTarget(long id, String username, String displayName, String email, boolean enabled) {
+    }
+
+    @Transactional(readOnly = true)
+    java.util.Optional<LinkTarget> linkTarget(long id) {
+        return users.findById(id).map(u -> new LinkTarget(u.getId(), u.getUsername(), u.getDisplayName(), u.getEmail(),
+                u.isEnabled()));
+    }
+
     private long activeOwners() {
         return users.findAll().stream().filter(u -> u.getRole() == Role.OWNER && u.isEnabled()).count();
     }

@@ -9,7 +9,8 @@ import org.springframework.scheduling.annotation.EnableScheduling;
 
 /**
  * Entry point. With the first argument {@code forecast} the jar runs the one-shot forecast command
- * (no server, no database); otherwise it starts the service.
+ * (no server, no database), with {@code reset-password USER} the console password recovery
+ * ({@link PasswordRecovery}); otherwise it starts the service.
  *
  * <p>The class lives in its own package and names the feature packages it scans, so the plain-Java
  * {@code engine} package is never component-scanned.
@@ -26,6 +27,9 @@ public class TallyvaneApplication {
     public static void main(String[] args) {
         if (args.length > 0 && ForecastCommand.NAME.equals(args[0])) {
             System.exit(ForecastCommand.run(args, System.out, System.err));
+        }
+        if (args.length > 0 && PasswordRecovery.NAME.equals(args[0])) {
+            System.exit(PasswordRecovery.run(args, System.out, System.err));
         }
         SpringApplication.run(TallyvaneApplication.class, args);
     }

@@ -12,7 +12,6 @@ import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationDetails;
 import dev.tallyvane.location.LocationService;
 import java.math.BigDecimal;
-import java.security.SecureRandom;
 import java.time.Clock;
 import java.time.LocalDate;
 import java.time.ZoneId;
@@ -122,23 +121,11 @@ class DemoLoader implements ApplicationRunner {
     }
 
     private void createUser(String name, String display, String email, Role role, Map<Role, String> passwords) {
-        String password = password();
+        String password = dev.tallyvane.account.PasswordResets.randomPassword();
         users.create(new UserService.NewUser(name, display, email, password, password, role), "demo");
         passwords.put(role, password);
     }
 
-    private static String password() {
-        String alphabet = "abcdefghijkmnpqrstuvwxyz23456789";
-        SecureRandom random = new SecureRandom();
-        StringBuilder sb = new StringBuilder();
-        for (int i = 0; i < 16; i++) {
-            if (i > 0 && i % 4 == 0) {
-                sb.append('-');
-            }
-            sb.append(alphabet.charAt(random.nextInt(alphabet.length())));
-        }
-        return sb.toString();
-    }
 
     /** The demo's measures besides net sales: cake orders at the harbour, and the till's transactions. */
     private void declare(List<String> used) {

@@ -26,8 +26,11 @@ public class Jobs implements SmartLifecycle {
     private final SchedulerClient client;
     private final SchedulerClient transactionalClient;
     private Scheduler scheduler;
+    private final boolean autoStart;
 
-    Jobs(DataSource dataSource, List<Task<?>> tasks, JobsProperties properties) {
+    Jobs(DataSource dataSource, List<Task<?>> tasks, JobsProperties properties,
+            @org.springframework.beans.factory.annotation.Value("${tallyvane.jobs.start:true}") boolean autoStart) {
+        this.autoStart = autoStart;
         this.dataSource = dataSource;
         this.tasks = List.copyOf(tasks);
         this.properties = properties;
@@ -85,6 +88,12 @@ public class Jobs implements SmartLifecycle {
                     .heartbeatInterval(properties.heartbeat()).enableImmediateExecution().build();
             scheduler.start();
         }
+    }
+
+    /** False for a one-off command run against the database (no worker pool then; queueing still works). */
+    @Override
+    public boolean isAutoStartup() {
+        return autoStart;
     }
 
     @Override

@@ -46,7 +46,7 @@ class RouteSecurityIntegrationTests {
     UserService users;
 
     /** Routes open to anyone (exact patterns). */
-    static final Set<String> PUBLIC = Set.of("/login", "/setup", "/email/unsubscribe", "/error");
+    static final Set<String> PUBLIC = Set.of("/login", "/setup", "/email/unsubscribe", "/error", "/password-reset");
 
     record Route(HttpMethod method, String pattern) {
         String path() {
