@@ -27,6 +27,12 @@ public class AuditLog {
         events.save(new AuditEvent(clock.instant(), actor, action, detail));
     }
 
+    /** A location created or changed: logged in the changing transaction (so with it, or not at all). */
+    @org.springframework.context.event.EventListener
+    void locationChanged(dev.tallyvane.location.LocationChanged event) {
+        record(event.actor(), event.action(), event.detail());
+    }
+
     /** Records an event in its own transaction (sign-in failures, which roll nothing else back). */
     @Transactional(propagation = Propagation.REQUIRES_NEW)
     public void recordAlone(String actor, String action, String detail) {

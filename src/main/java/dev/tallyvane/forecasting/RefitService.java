@@ -69,6 +69,13 @@ public class RefitService {
         Instant cutoff = clock.instant().truncatedTo(ChronoUnit.MICROS);
         SeriesStateStore.SeriesKey key = new SeriesStateStore.SeriesKey(locationId, measure);
         Location location = locations.byId(locationId);
+        if (!location.isActive()) {
+            // a closed location gets no new forecasts; the ones issued while it was open stay in the history
+            String message = "closed" + (location.getClosedOn() == null ? "" : " on " + location.getClosedOn())
+                    + ": no new forecasts";
+            state.fitted(key, clock.instant(), cutoff, message);
+            return new Outcome(null, message, cutoff);
+        }
         ForecastSettings s = settings.settings(locationId, measure);
         Granularity granularity = assembler.granularity(location, measure, s);
         Optional<Series> series = assembler.assemble(location, measure, granularity, cutoff);

@@ -82,8 +82,13 @@ public class FigureRules {
                     problems.add(new FieldProblem(i, "location", "unknown location '" + f.locationCode() + "'"));
                 }
             } else {
-                if (!location.isActive()) {
+                if (!location.isActive() && location.getClosedOn() == null) {
                     problems.add(new FieldProblem(i, "location", "location '" + f.locationCode() + "' is closed"));
+                } else if (!location.isActive() && f.periodStart().isAfter(location.getClosedOn())) {
+                    // late figures for the periods it was open are still welcome
+                    problems.add(new FieldProblem(i, "period", "location '" + f.locationCode() + "' closed on "
+                            + location.getClosedOn() + "; period " + f.granularity().label(f.periodStart())
+                            + " begins after it"));
                 }
                 if (onlyLocationId != null && !onlyLocationId.equals(location.getId())) {
                     problems.add(new FieldProblem(i, "location", "this API token may not write location '"

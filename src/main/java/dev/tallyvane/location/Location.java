@@ -44,6 +44,9 @@ public class Location {
     @Column(nullable = false)
     private Status status;
 
+    @Column(name = "closed_on")
+    private LocalDate closedOn;
+
     @Column(name = "created_at", nullable = false)
     private Instant createdAt;
 
@@ -107,11 +110,17 @@ public class Location {
         return createdAt;
     }
 
-    void update(String name, ZoneId zone, Currency currency, LocalDate openedOn, Status status) {
+    /** The day it closed (null while active, and for a location closed before closing dates were kept). */
+    public LocalDate getClosedOn() {
+        return closedOn;
+    }
+
+    void update(String name, ZoneId zone, Currency currency, LocalDate openedOn, Status status, LocalDate closedOn) {
         this.name = name;
         this.timeZone = zone.getId();
         this.currency = currency.getCurrencyCode();
         this.openedOn = openedOn;
         this.status = status;
+        this.closedOn = status == Status.CLOSED ? closedOn : null;
     }
 }

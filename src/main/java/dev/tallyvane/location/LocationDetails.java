@@ -11,7 +11,13 @@ import java.time.LocalDate;
  * @param currency ISO 4217 code, e.g. EUR
  * @param openedOn the day the location opened (optional)
  * @param status   ACTIVE or CLOSED (optional on create: ACTIVE)
+ * @param closedOn the day it closed, with status CLOSED (optional: today at the location)
  */
 public record LocationDetails(String code, String name, String timeZone, String currency, LocalDate openedOn,
-        String status) {
+        String status, LocalDate closedOn) {
+
+    public LocationDetails(String code, String name, String timeZone, String currency, LocalDate openedOn,
+            String status) {
+        this(code, name, timeZone, currency, openedOn, status, null);
+    }
 }

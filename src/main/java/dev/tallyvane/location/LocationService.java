@@ -24,9 +24,12 @@ public class LocationService {
     private final LocationRepository locations;
     private final Clock clock;
     private final org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate named;
+    private final org.springframework.context.ApplicationEventPublisher events;
 
     LocationService(LocationRepository locations, Clock clock,
-            org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate named) {
+            org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate named,
+            org.springframework.context.ApplicationEventPublisher events) {
+        this.events = events;
         this.locations = locations;
         this.clock = clock;
         this.named = named;
@@ -116,11 +119,71 @@ public class LocationService {
         return locations.save(new Location(v.code, v.name, v.zone, v.currency, v.openedOn, clock.instant()));
     }
 
+    /** Creates a location on someone's behalf, for the activity log. */
     @Transactional
-    public Location update(String code, LocationDetails details) {
+    public Location create(LocationDetails details, String actor) {
+        Location l = create(details);
+        events.publishEvent(new LocationChanged(actor, "LOCATION_CREATED", l.getCode() + " (" + l.getName() + ", "
+                + l.getTimeZone() + ", " + l.getCurrency() + ")"));
+        return l;
+    }
+
+    /**
+     * Changes a location: name, time zone, currency, opening day, and closing (with the day it
+     * closed: today at the location when none is given) or reopening. Kept in the activity log with
+     * what changed.
+     *
+     * @throws InvalidRequest naming each bad field
+     */
+    @Transactional
+    public Location update(String code, LocationDetails details, String actor) {
         Location location = byCode(code);
         Valid v = validate(details, false);
-        location.update(v.name, v.zone, v.currency, v.openedOn, v.status);
+        LocalDate closedOn = null;
+        if (v.status == Location.Status.CLOSED) {
+            closedOn = details.closedOn() != null ? details.closedOn() : location.getClosedOn() != null
+                    ? location.getClosedOn() : LocalDate.now(clock.withZone(v.zone));
+            LocalDate today = LocalDate.now(clock.withZone(v.zone));
+            List<FieldProblem> problems = new ArrayList<>();
+            if (closedOn.isAfter(today)) {
+                problems.add(new FieldProblem(null, "closedOn", "the closing day " + closedOn + " is after today ("
+                        + today + " at the location); close the location on the day it closes"));
+            }
+            if (v.openedOn != null && closedOn.isBefore(v.openedOn)) {
+                problems.add(new FieldProblem(null, "closedOn", "the closing day " + closedOn + " is before the "
+                        + "opening day " + v.openedOn));
+            }
+            if (!problems.isEmpty()) {
+                throw new InvalidRequest("The location has invalid values.", problems);
+            }
+        } else if (details.closedOn() != null) {
+            throw new InvalidRequest("closedOn", "a closing day needs the status CLOSED");
+        }
+        List<String> changes = new ArrayList<>();
+        if (!v.name.equals(location.getName())) {
+            changes.add("name '" + location.getName() + "' → '" + v.name + "'");
+        }
+        if (!v.zone.getId().equals(location.getTimeZone())) {
+            changes.add("time zone " + location.getTimeZone() + " → " + v.zone.getId());
+        }
+        if (!v.currency.getCurrencyCode().equals(location.getCurrency())) {
+            changes.add("currency " + location.getCurrency() + " → " + v.currency.getCurrencyCode());
+        }
+        if (!java.util.Objects.equals(v.openedOn, location.getOpenedOn())) {
+            changes.add("opened on " + location.getOpenedOn() + " → " + v.openedOn);
+        }
+        String action = "LOCATION_CHANGED";
+        if (v.status != location.getStatus()) {
+            action = v.status == Location.Status.CLOSED ? "LOCATION_CLOSED" : "LOCATION_REOPENED";
+            changes.add(v.status == Location.Status.CLOSED ? "closed on " + closedOn : "reopened");
+        } else if (v.status == Location.Status.CLOSED && !closedOn.equals(location.getClosedOn())) {
+            changes.add("closed on " + location.getClosedOn() + " → " + closedOn);
+        }
+        location.update(v.name, v.zone, v.currency, v.openedOn, v.status, closedOn);
+        if (!changes.isEmpty()) {
+            events.publishEvent(new LocationChanged(actor, action, location.getCode() + ": " + String.join(", ",
+                    changes)));
+        }
         return location;
     }
 

@@ -367,10 +367,15 @@ abstract class IntakeApiContract {
         mvc.perform(org.springframework.test.web.servlet.request.MockMvcRequestBuilders.put("/api/v1/locations/{c}", newCode)
                         .header("Authorization", "Bearer " + token).contentType(MediaType.APPLICATION_JSON)
                         .content("{\"name\":\"Riverside\",\"timeZone\":\"Europe/Vienna\",\"currency\":\"EUR\","
-                                + "\"status\":\"CLOSED\"}"))
-                .andExpect(status().isOk()).andExpect(jsonPath("$.status").value("CLOSED"));
+                                + "\"status\":\"CLOSED\",\"closedOn\":\"2026-11-15\"}"))
+                .andExpect(status().isOk()).andExpect(jsonPath("$.status").value("CLOSED"))
+                .andExpect(jsonPath("$.closedOn").value("2026-11-15"));
+        // a closed location takes late figures for the days it was open, none after it closed
         mvc.perform(postFigures("{\"figures\":[{\"location\":\"" + newCode + "\",\"period\":\"2026-11-01\",\"amount\":1}]}"))
-                .andExpect(jsonPath("$.errors[0].reason").value("location '" + newCode + "' is closed"));
+                .andExpect(status().isOk());
+        mvc.perform(postFigures("{\"figures\":[{\"location\":\"" + newCode + "\",\"period\":\"2026-11-20\",\"amount\":1}]}"))
+                .andExpect(jsonPath("$.errors[0].reason").value("location '" + newCode + "' closed on 2026-11-15; "
+                        + "period 2026-11-20 begins after it"));
         mvc.perform(get("/api/v1/locations/NOSUCH").header("Authorization", "Bearer " + token))
                 .andExpect(status().isNotFound()).andExpect(jsonPath("$.title").value("Unknown location"));
     }

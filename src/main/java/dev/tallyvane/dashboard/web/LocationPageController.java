@@ -68,9 +68,9 @@ class LocationPageController {
     }
 
     @PostMapping("/locations/{code}")
-    String update(@PathVariable String code, LocationForm form, Model model) {
+    String update(@PathVariable String code, LocationForm form, Principal user, Model model) {
         try {
-            locations.update(code, form.details());
+            locations.update(code, form.details(), user.getName());
             return "redirect:/locations/" + locations.byCode(code).getCode() + "?saved";
         } catch (InvalidRequest e) {
             Location l = locations.byCode(code);
@@ -100,7 +100,7 @@ class LocationPageController {
 
     private static LocationForm details(Location l) {
         return new LocationForm(l.getCode(), l.getName(), l.getTimeZone(), l.getCurrency(), l.getOpenedOn(),
-                l.getStatus().name());
+                l.getStatus().name(), l.getClosedOn());
     }
 
     private void fill(Model model, Location l, LocationForm form, SettingsForm settingsForm) {

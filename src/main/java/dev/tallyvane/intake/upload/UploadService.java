@@ -294,8 +294,7 @@ public class UploadService {
         String zone = existing.isEmpty() ? properties.defaults().timeZone() : existing.get(0).getTimeZone();
         String currency = existing.isEmpty() ? properties.defaults().currency() : existing.get(0).getCurrency();
         for (String code : codes) {
-            locations.create(new LocationDetails(code, code, zone, currency, null, null));
-            audit.record(user, "LOCATION_CREATED", code + " (from an upload)");
+            locations.create(new LocationDetails(code, code, zone, currency, null, null), user);
         }
     }
 

@@ -34,10 +34,10 @@ class LocationsApi {
 
     /** A location as the API shows it. */
     record LocationView(String code, String name, String timeZone, String currency, LocalDate openedOn, String status,
-            Instant createdAt) {
+            LocalDate closedOn, Instant createdAt) {
         static LocationView of(Location l) {
             return new LocationView(l.getCode(), l.getName(), l.getTimeZone(), l.getCurrency(), l.getOpenedOn(),
-                    l.getStatus().name(), l.getCreatedAt());
+                    l.getStatus().name(), l.getClosedOn(), l.getCreatedAt());
         }
     }
 
@@ -58,7 +58,8 @@ class LocationsApi {
     @PostMapping
     ResponseEntity<LocationView> create(@RequestBody LocationDetails details, @AuthenticationPrincipal ApiClient client) {
         client.requireAllLocations("create or change locations");
-        return ResponseEntity.status(HttpStatus.CREATED).body(LocationView.of(locations.create(details)));
+        return ResponseEntity.status(HttpStatus.CREATED).body(LocationView.of(locations.create(details,
+                client.actor())));
     }
 
     @Operation(summary = "Change a location (tokens for all locations only)")
@@ -66,7 +67,7 @@ class LocationsApi {
     LocationView update(@PathVariable String code, @RequestBody LocationDetails details,
             @AuthenticationPrincipal ApiClient client) {
         client.requireAllLocations("create or change locations");
-        return LocationView.of(locations.update(code, details));
+        return LocationView.of(locations.update(code, details, client.actor()));
     }
 
 }

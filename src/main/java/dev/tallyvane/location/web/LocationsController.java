@@ -16,21 +16,25 @@ import org.springframework.web.bind.annotation.PostMapping;
 class LocationsController {
 
     private final LocationService locations;
+    private final dev.tallyvane.system.TallyvaneProperties properties;
 
-    LocationsController(LocationService locations) {
+    LocationsController(LocationService locations, dev.tallyvane.system.TallyvaneProperties properties) {
         this.locations = locations;
+        this.properties = properties;
     }
 
     @GetMapping("/locations/new")
     String newForm(Model model) {
-        model.addAttribute("form", new LocationForm("", "", "Europe/Berlin", "EUR", null, "ACTIVE"));
+        // defaults from configuration (tallyvane.defaults.time-zone and .currency)
+        model.addAttribute("form", new LocationForm("", "", properties.defaults().timeZone(),
+                properties.defaults().currency(), null, "ACTIVE"));
         return "location/form";
     }
 
     @PostMapping("/locations")
-    String create(LocationForm form, Model model) {
+    String create(LocationForm form, java.security.Principal user, Model model) {
         try {
-            Location l = locations.create(form.details());
+            Location l = locations.create(form.details(), user.getName());
             return "redirect:/locations/" + l.getCode();
         } catch (InvalidRequest e) {
             model.addAttribute("problems", e.problems());
