@@ -51,11 +51,14 @@ class DemoLoader implements ApplicationRunner {
     private final RefitService refits;
     private final SettingsService settings;
     private final Clock clock;
+    private final dev.tallyvane.system.StartupWork startup;
 
     DemoLoader(@Value("${tallyvane.demo.enabled:false}") boolean enabled,
             @Value("${tallyvane.summary.dashboard-url:http://localhost:8080}") String url, UserService users,
             LocationService locations, IntakeService intake, dev.tallyvane.intake.Measures measures, RefitService refits,
-            SettingsService settings, Clock clock, org.springframework.core.env.Environment environment) {
+            SettingsService settings, Clock clock, org.springframework.core.env.Environment environment,
+            dev.tallyvane.system.StartupWork startup) {
+        this.startup = startup;
         this.measures = measures;
         this.enabled = enabled;
         this.url = url;
@@ -84,11 +87,33 @@ class DemoLoader implements ApplicationRunner {
         if (!enabled || !users.needsSetup() || !locations.all().isEmpty()) {
             return;
         }
+        startup.begin("the demo chain");
+        try {
+            load();
+        } finally {
+            startup.done();
+        }
+    }
+
+    private void load() {
         long t0 = System.nanoTime();
         Map<Role, String> passwords = new java.util.EnumMap<>(Role.class);
         createUser("owner", "Olive Owner", "owner@brindle-oak.example", Role.OWNER, passwords);
         createUser("bookkeeper", "Bram Bookkeeper", "books@brindle-oak.example", Role.BOOKKEEPER, passwords);
         createUser("viewer", "Vera Viewer", null, Role.VIEWER, passwords);
+        // the sign-ins first: the sign-in page is already served and says the demo is still loading
+        log.info("""
+
+                ==============================================================
+                 Tallyvane demo: loading "Brindle & Oak Bakehouse" (an invented chain)
+                 Sign in at {} as
+                   owner      / {}
+                   bookkeeper / {}
+                   viewer     / {}
+                 The figures and forecasts take a minute or two; the sign-in
+                 page says when they are ready.
+                ==============================================================""", address(), passwords.get(Role.OWNER),
+                passwords.get(Role.BOOKKEEPER), passwords.get(Role.VIEWER));
         LocalDate yesterday = LocalDate.now(clock.withZone(ZONE)).minusDays(1);
         List<DemoScenario.Day> days = DemoScenario.days(yesterday);
         for (DemoScenario.Shop shop : DemoScenario.shops()) {

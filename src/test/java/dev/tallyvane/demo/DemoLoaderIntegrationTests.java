@@ -53,5 +53,8 @@ class DemoLoaderIntegrationTests {
         assertThat(reasons).isNotEmpty().allSatisfy(r -> assertThat(r).contains("below forecast"));
         // the logins are printed for the newcomer
         assertThat(output.getOut()).contains("sign in as").contains("owner      / ").contains("Brindle & Oak Bakehouse");
+        // the sign-ins are printed before the figures load (the sign-in page is served meanwhile)
+        assertThat(output.getOut().indexOf("Tallyvane demo: loading")).isNotNegative()
+                .isLessThan(output.getOut().indexOf("Loaded in"));
     }
 }

@@ -90,4 +90,22 @@ class SetupAndSignInIntegrationTests {
                 .andExpect(content().string(org.hamcrest.Matchers.containsString("this account is locked until")));
         assertThat(audit.latest(20)).anyMatch(e -> e.getAction().equals("SIGN_IN_FAILED"));
     }
+
+    @Autowired
+    dev.tallyvane.system.StartupWork startup;
+
+    /** While the demo chain loads after the server started, the sign-in page says so. */
+    @Test
+    @Order(4)
+    void theSignInPageSaysWhenTheDemoIsStillLoading() throws Exception {
+        startup.begin("the demo chain");
+        try {
+            mvc.perform(get("/login")).andExpect(status().isOk()).andExpect(content().string(
+                    org.hamcrest.Matchers.containsString("Tallyvane is still loading the demo chain")));
+        } finally {
+            startup.done();
+        }
+        mvc.perform(get("/login")).andExpect(content().string(org.hamcrest.Matchers.not(
+                org.hamcrest.Matchers.containsString("still loading"))));
+    }
 }

@@ -15,9 +15,11 @@ import org.springframework.web.bind.annotation.PostMapping;
 class SignInController {
 
     private final UserService users;
+    private final dev.tallyvane.system.StartupWork startup;
 
-    SignInController(UserService users) {
+    SignInController(UserService users, dev.tallyvane.system.StartupWork startup) {
         this.users = users;
+        this.startup = startup;
     }
 
     @GetMapping("/login")
@@ -35,6 +37,7 @@ class SignInController {
                 }
             }
         }
+        startup.underWay().ifPresent(what -> model.addAttribute("stillLoading", what));
         return "account/login";
     }
 
