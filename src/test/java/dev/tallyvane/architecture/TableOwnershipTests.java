@@ -28,7 +28,7 @@ class TableOwnershipTests {
     /** Module (package under dev.tallyvane) → the tables it owns. */
     static final Map<String, Set<String>> OWNERS = Map.of(
             "location", Set.of("location"),
-            "account", Set.of("app_user", "api_token", "audit_event", "first_run_setup"),
+            "account", Set.of("app_user", "api_token", "audit_event", "first_run_setup", "password_reset"),
             "intake", Set.of("figure_revision", "idempotency_record", "upload", "measure"),
             "forecasting", Set.of("forecast_settings", "calendar_day", "series_state", "issued_forecast",
                     "issued_forecast_point", "series_fit"),
