@@ -78,8 +78,10 @@ class UploadsController {
     String commit(@PathVariable long id, @RequestParam(defaultValue = "false") boolean createLocations,
             Principal user, Model model, RedirectAttributes redirect) {
         try {
+            java.util.Set<String> created = createLocations ? uploads.preview(id).unknownLocations() : java.util.Set.of();
             IntakeResult result = uploads.commit(id, createLocations, user.getName());
             redirect.addFlashAttribute("committed", result);
+            redirect.addFlashAttribute("createdLocations", created);
             return "redirect:/uploads/" + id;
         } catch (InvalidRequest e) {
             model.addAttribute("problems", e.problems());

@@ -117,10 +117,17 @@ abstract class UploadFlowContract {
         mvc.perform(post("/uploads/{id}/commit", id).with(bookkeeper).with(csrf())).andExpect(status().isOk())
                 .andExpect(content().string(containsString("do not exist yet")));
         assertThat(rows(code)).isZero();
-        mvc.perform(post("/uploads/{id}/commit", id).param("createLocations", "true").with(bookkeeper).with(csrf()))
-                .andExpect(status().isFound());
+        var saved = mvc.perform(post("/uploads/{id}/commit", id).param("createLocations", "true").with(bookkeeper)
+                .with(csrf())).andExpect(status().isFound()).andReturn();
         assertThat(rows(code)).isEqualTo(2);
         assertThat(rows(fresh)).isEqualTo(1);
+        // the location the upload created can be named properly at once; the known one is not offered
+        String after = mvc.perform(get("/uploads/{id}", id).with(user("olive").roles("OWNER"))
+                .flashAttrs(saved.getFlashMap())).andReturn().getResponse().getContentAsString();
+        assertThat(after).contains("href=\"/locations/" + fresh + "#details-h\">New location: give it its proper name")
+                .doesNotContain("href=\"/locations/" + code + "#details-h\"");
+        assertThat(mvc.perform(get("/uploads/{id}", id).with(bookkeeper).flashAttrs(saved.getFlashMap())).andReturn()
+                .getResponse().getContentAsString()).contains("New location: the owner can give it its proper name");
         assertThat(locations.byCode(fresh).getName()).isEqualTo(fresh);
         mvc.perform(get("/uploads").with(bookkeeper)).andExpect(content().string(containsString("november.csv")))
                 .andExpect(content().string(containsString("committed")));
