@@ -206,12 +206,27 @@ class AccuracyHarness {
         Map<String, double[]> fixed = new TreeMap<>();
         double[] auto = new double[cases.size()];
         double[] hindsight = new double[cases.size()];
+        // interval coverage of the automatic choice on the held-out periods, by how far ahead: [band][inside, scored]
+        int[][] in80 = new int[BANDS.length][2];
+        int[][] in95 = new int[BANDS.length][2];
         System.out.println("BENCH series | automatic choice | MASE | seasonal naive | best single in hindsight");
         for (int i = 0; i < cases.size(); i++) {
             Case c = cases.get(i);
             int h = c.holdout().length;
             ForecastResult a = ForecastEngine.forecast(c.train(), request(c));
             auto[i] = mase(a, c);
+            for (int step = 1; step <= h; step++) {
+                ForecastResult.ForecastPoint p = a.forecasts().get(step - 1);
+                if (p.closed() || c.train().isClosed(c.train().values().length + step - 1)) {
+                    continue; // a closed day is forecast as 0 with no range, and never scored
+                }
+                double y = c.holdout()[step - 1];
+                int band = band(step);
+                in80[band][0] += y >= p.lo80() && y <= p.hi80() ? 1 : 0;
+                in80[band][1]++;
+                in95[band][0] += y >= p.lo95() && y <= p.hi95() ? 1 : 0;
+                in95[band][1]++;
+            }
             String bestKey = null;
             hindsight[i] = Double.POSITIVE_INFINITY;
             for (Candidate k : singles(c)) {
@@ -238,6 +253,19 @@ class AccuracyHarness {
         }
         System.out.printf(Locale.ROOT, "BENCH mean MASE over %d series: automatic %.3f, best single in hindsight %.3f%n",
                 cases.size(), mean(auto), mean(hindsight));
+        System.out.println("BENCH coverage | steps ahead | scored | inside 80% | inside 95%");
+        int[] all80 = new int[2];
+        int[] all95 = new int[2];
+        for (int b = 0; b < BANDS.length; b++) {
+            System.out.printf(Locale.ROOT, "BENCH coverage | %s | %d | %.1f%% | %.1f%%%n", BANDS[b], in80[b][1],
+                    100.0 * in80[b][0] / in80[b][1], 100.0 * in95[b][0] / in95[b][1]);
+            all80[0] += in80[b][0];
+            all80[1] += in80[b][1];
+            all95[0] += in95[b][0];
+            all95[1] += in95[b][1];
+        }
+        System.out.printf(Locale.ROOT, "BENCH coverage | all | %d | %.1f%% | %.1f%%%n", all80[1],
+                100.0 * all80[0] / all80[1], 100.0 * all95[0] / all95[1]);
         fixed.forEach((k, v) -> {
             // compared on the series the method applies to (enough history), against the automatic choice there
             double[] mine = Arrays.stream(v).filter(Double::isFinite).toArray();
@@ -246,6 +274,13 @@ class AccuracyHarness {
             System.out.printf(Locale.ROOT, "BENCH   fixed %-12s on %2d series: mean MASE %.3f, automatic there %.3f (%s)%n",
                     k, mine.length, mean(mine), autoThere, mean(mine) > autoThere ? "automatic better" : "fixed better");
         });
+    }
+
+    /** Steps ahead grouped for the coverage table. */
+    static final String[] BANDS = {"1", "2-4", "5-8", "9-12", "13-28"};
+
+    static int band(int step) {
+        return step == 1 ? 0 : step <= 4 ? 1 : step <= 8 ? 2 : step <= 12 ? 3 : 4;
     }
 
     private static double mean(double[] v) {
