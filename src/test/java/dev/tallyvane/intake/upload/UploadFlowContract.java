@@ -172,7 +172,10 @@ abstract class UploadFlowContract {
         long second = upload("mixed.csv", mixed.getBytes(StandardCharsets.UTF_8));
         assertThat(historyCounts(second)).as("rows, rejected, new, changed, unchanged").containsExactly(5, 2, 1, 1, 1);
         mvc.perform(get("/uploads").with(bookkeeper)).andExpect(status().isOk())
-                .andExpect(content().string(containsString("waiting for review")));
+                .andExpect(content().string(containsString("waiting for review")))
+                // times in the chain's zone with the zone named, not in the server's own
+                .andExpect(content().string(org.hamcrest.Matchers.matchesRegex(
+                        "(?s).*<td>\\d{4}-\\d{2}-\\d{2} \\d{2}:\\d{2} Europe/Berlin</td>.*")));
 
         // dates that need their order: nothing is read until the user says; then the counts follow
         long third = upload("ambiguous.csv", ("location,period,amount\n" + code + ",03/04/2026,10\n" + code

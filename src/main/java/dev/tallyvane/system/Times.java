@@ -1,0 +1,48 @@
+package dev.tallyvane.system;
+
+import java.time.Instant;
+import java.time.ZoneId;
+import java.time.format.DateTimeFormatter;
+import java.util.Locale;
+import org.springframework.stereotype.Component;
+
+/**
+ * Moments as the pages show them ({@code @times.at(instant, zone)}): in a location's time zone, or
+ * for chain-wide pages (uploads, tokens, activity log) in the chain's default zone
+ * ({@code tallyvane.defaults.time-zone}), always with the zone named, never in the server's own.
+ */
+@Component("times")
+public class Times {
+
+    private static final DateTimeFormatter MINUTES = DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm", Locale.ROOT);
+    private static final DateTimeFormatter SECONDS = DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm:ss", Locale.ROOT);
+
+    private final ZoneId chain;
+
+    Times(TallyvaneProperties properties) {
+        this.chain = ZoneId.of(properties.defaults().timeZone());
+    }
+
+    /** "2026-12-03 09:30 Europe/Berlin" in the given zone (the chain's when null); empty for no moment. */
+    public String at(Instant instant, String zone) {
+        return format(instant, zone, MINUTES);
+    }
+
+    /** The same in the chain's zone. */
+    public String at(Instant instant) {
+        return format(instant, null, MINUTES);
+    }
+
+    /** With seconds, for the activity log. */
+    public String exact(Instant instant) {
+        return format(instant, null, SECONDS);
+    }
+
+    private String format(Instant instant, String zone, DateTimeFormatter f) {
+        if (instant == null) {
+            return "";
+        }
+        ZoneId z = zone == null ? chain : ZoneId.of(zone);
+        return f.format(instant.atZone(z)) + " " + z.getId();
+    }
+}
