@@ -9,6 +9,7 @@ import dev.tallyvane.engine.evaluation.Metric;
 import dev.tallyvane.engine.model.Naive;
 import dev.tallyvane.engine.model.SeasonalNaive;
 import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.engine.series.OpenDays;
 import dev.tallyvane.engine.series.Series;
 import dev.tallyvane.forecasting.internal.IssuedForecastStore;
 import dev.tallyvane.forecasting.internal.SeriesStateStore;
@@ -105,12 +106,26 @@ public class RefitService {
             return new Outcome(null, message, cutoff);
         }
         int durationMs = (int) ((System.nanoTime() - t0) / 1_000_000);
+        // a week or month ahead holding closed days is forecast from its open days (OpenDays)
+        double[] weekdays = granularity == Granularity.DAY ? null : assembler.assemble(location, measure,
+                Granularity.DAY, cutoff).map(OpenDays::weekdayWeights).orElse(null);
+        dev.tallyvane.engine.series.CalendarFacts calendar = weekdays == null
+                ? dev.tallyvane.engine.series.CalendarFacts.NONE : assembler.calendar(locationId);
         List<IssuedForecast.Point> points = new ArrayList<>();
+        int reduced = 0;
         for (int i = 0; i < result.forecasts().size(); i++) {
             ForecastResult.ForecastPoint p = result.forecasts().get(i);
-            Double bench = benchmark.forecasts().get(i).forecast();
-            points.add(new IssuedForecast.Point(i + 1, p.period(), p.forecast(), p.lo80(), p.hi80(), p.lo95(), p.hi95(),
-                    bench, p.closed()));
+            double share = OpenDays.openShare(granularity, p.period(), weekdays, calendar);
+            reduced += share < 1 ? 1 : 0;
+            Double bench = benchmark.forecasts().get(i).forecast() * share;
+            points.add(new IssuedForecast.Point(i + 1, p.period(), p.forecast() * share, p.lo80() * share,
+                    p.hi80() * share, p.lo95() * share, p.hi95() * share, bench, p.closed() || share == 0));
+        }
+        List<String> notes = new ArrayList<>(result.notes());
+        if (reduced > 0) {
+            notes.add(reduced + " " + SettingsService.lower(granularity) + (reduced == 1 ? "" : "s") + " ahead "
+                    + (reduced == 1 ? "holds" : "hold") + " closed days: forecast from the open days, each weekday "
+                    + "weighted by its sales over the last " + OpenDays.WEEKS + " weeks.");
         }
         Double promised = result.leaderboard().stream().filter(e -> e.key().equals(result.chosenKey())
                 && e.status() == LeaderboardEntry.Status.SCORED).map(e -> e.score(Metric.MASE)).findFirst().orElse(null);
@@ -124,7 +139,7 @@ public class RefitService {
         IssuedForecast f = new IssuedForecast(0, locationId, measure, granularity.name(), horizon, s.metric().name(),
                 result.chosenKey(), result.chosenName(), result.chosenForm(), result.reason(),
                 result.intervalSource().name(), result.originCount(), json.writeValueAsString(result.parameters()),
-                json.writeValueAsString(result.leaderboard()), json.writeValueAsString(result.notes()), promised,
+                json.writeValueAsString(result.leaderboard()), json.writeValueAsString(notes), promised,
                 Double.isFinite(scale) ? scale : null, result.history().get(result.history().size() - 1).period(), cutoff,
                 ForecastEngine.VERSION, clock.instant(), issuedBy, durationMs, points);
         long id = issued.insert(f);

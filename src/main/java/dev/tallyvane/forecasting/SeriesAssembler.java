@@ -70,9 +70,11 @@ class SeriesAssembler {
     }
 
     private CalendarFacts calendar(long locationId, Granularity granularity) {
-        if (granularity != Granularity.DAY) {
-            return CalendarFacts.NONE;
-        }
+        return granularity == Granularity.DAY ? calendar(locationId) : CalendarFacts.NONE;
+    }
+
+    /** The location's closed days and holidays, past and ahead. */
+    CalendarFacts calendar(long locationId) {
         Set<LocalDate> closed = new HashSet<>();
         Set<LocalDate> holidays = new HashSet<>();
         jdbc.query("select on_date, kind from calendar_day where location_id = ?", rs -> {
