@@ -144,11 +144,11 @@ public class ExportService {
         w.header(List.of(Column.text("location"), Column.text("measure"), Column.text("granularity"), Column.date("period"),
                 Column.amount("amount"), Column.text("current"), Column.timestamp("recorded_at"),
                 Column.timestamp("replaced_at"), Column.text("source"), Column.text("recorded_by"),
-                Column.integer("upload")));
+                Column.integer("upload"), Column.text("reason")));
         for (Location l : covered(r)) {
             figureFacts.revisions(l.getId(), r.from(), r.to(), f -> write(w, l.getCode(), f.measure(), lower(f.granularity()),
                     f.period(), new Money(f.amount(), l.getCurrency()), f.replacedAt() == null ? "yes" : "no",
-                    f.recordedAt(), f.replacedAt(), lower(f.source()), f.actor(), f.uploadId()));
+                    f.recordedAt(), f.replacedAt(), lower(f.source()), f.actor(), f.uploadId(), f.note()));
         }
     }
 

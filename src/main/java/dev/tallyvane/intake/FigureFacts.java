@@ -94,7 +94,7 @@ public class FigureFacts {
 
     /** One stored figure revision: current (replacedAt null) or replaced by a correction. */
     public record Revision(String measure, String granularity, LocalDate period, BigDecimal amount, Instant recordedAt,
-            Instant replacedAt, String source, String actor, Long uploadId) {
+            Instant replacedAt, String source, String actor, Long uploadId, String note) {
     }
 
     /**
@@ -114,13 +114,13 @@ public class FigureFacts {
             args.add(to);
         }
         streaming.query("select measure, granularity, period_start, amount, recorded_at, superseded_at, source, actor, "
-                + "upload_id from figure_revision where " + where + " order by measure, granularity, period_start, "
+                + "upload_id, note from figure_revision where " + where + " order by measure, granularity, period_start, "
                 + "recorded_at, id", rs -> {
                     java.sql.Timestamp replaced = rs.getTimestamp(6);
                     out.accept(new Revision(rs.getString(1), rs.getString(2), rs.getObject(3, LocalDate.class),
                             rs.getBigDecimal(4).stripTrailingZeros(), rs.getTimestamp(5).toInstant(),
                             replaced == null ? null : replaced.toInstant(), rs.getString(7), rs.getString(8),
-                            rs.getObject(9, Long.class)));
+                            rs.getObject(9, Long.class), rs.getString(10)));
                 }, args.toArray());
     }
 }

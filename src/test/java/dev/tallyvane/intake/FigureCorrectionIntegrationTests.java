@@ -118,6 +118,11 @@ class FigureCorrectionIntegrationTests {
         String html = page(done);
         assertThat(html).contains("Corrected\n            <span>net_sales " + day + ": 101 → 1,150.50</span>")
                 .contains("<td>the till counted one sale twice</td>").contains("correction · bea");
+        // the figures export carries the revision with its reason
+        String export = mvc.perform(get("/exports/figures").param("format", "csv").param("location", code)
+                .with(bookkeeper)).andExpect(status().isOk()).andReturn().getResponse().getContentAsString();
+        assertThat(export.lines().findFirst().orElseThrow()).endsWith(",upload,reason");
+        assertThat(export).contains(",correction,bea,,the till counted one sale twice");
         // the correction is a change like any other: the series is fitted again
         await().atMost(Duration.ofSeconds(30)).until(() -> queue.status(location.getId()).newestForecast() > before);
     }
