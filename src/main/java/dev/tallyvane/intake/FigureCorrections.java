@@ -50,7 +50,7 @@ public class FigureCorrections {
         List<FieldProblem> problems = new ArrayList<>();
         String measure = c.measure() == null ? "" : c.measure().trim();
         if (!FigureRules.MEASURE.matcher(measure).matches()) {
-            problems.add(new FieldProblem(null, "measure", "'" + clip(measure) + "' is not a measure"));
+            problems.add(new FieldProblem(null, "measure", "'" + InvalidRequest.echo(measure) + "' is not a measure"));
         }
         Granularity granularity = null;
         LocalDate period = null;
@@ -58,7 +58,7 @@ public class FigureCorrections {
             granularity = Granularity.ofLabel(c.period() == null ? "" : c.period());
             period = granularity.parse(c.period().trim());
         } catch (IllegalArgumentException e) {
-            problems.add(new FieldProblem(null, "period", "'" + clip(c.period()) + "' is not a day, week or month"));
+            problems.add(new FieldProblem(null, "period", "'" + InvalidRequest.echo(c.period()) + "' is not a day, week or month"));
         }
         BigDecimal amount = amount(c.amount(), problems);
         String reason = c.reason() == null ? "" : c.reason().strip();
@@ -99,14 +99,9 @@ public class FigureCorrections {
             return null;
         }
         if (!t.matches("[-+]?\\d{1,15}(\\.\\d+)?")) {
-            problems.add(new FieldProblem(null, "amount", "'" + clip(text) + "' is not an amount; write it like 1234.50"));
+            problems.add(new FieldProblem(null, "amount", "'" + InvalidRequest.echo(text) + "' is not an amount; write it like 1234.50"));
             return null;
         }
         return new BigDecimal(t);
-    }
-
-    private static String clip(String s) {
-        String t = s == null ? "" : s.strip();
-        return t.length() > 40 ? t.substring(0, 40) + "…" : t;
     }
 }

@@ -56,7 +56,7 @@ public class Measures {
         String n = name == null ? "" : name.strip();
         String d = description == null ? "" : description.strip();
         if (!FigureRules.MEASURE.matcher(n).matches()) {
-            problems.add(new FieldProblem(null, "name", "'" + clip(n) + "' is not a measure name: use lower-case "
+            problems.add(new FieldProblem(null, "name", "'" + InvalidRequest.echo(n) + "' is not a measure name: use lower-case "
                     + "letters, digits and '_', starting with a letter, at most 40 (e.g. transactions)"));
         } else if (store.names().contains(n)) {
             problems.add(new FieldProblem(null, "name", "'" + n + "' is declared already"));
@@ -123,9 +123,5 @@ public class Measures {
             current = t;
         }
         return previous[b.length()];
-    }
-
-    private static String clip(String s) {
-        return s.length() > 40 ? s.substring(0, 40) + "…" : s;
     }
 }

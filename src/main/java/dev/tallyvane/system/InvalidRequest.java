@@ -33,4 +33,10 @@ public class InvalidRequest extends RuntimeException {
      */
     public record FieldProblem(Integer index, String field, String reason) {
     }
+
+    /** A user's input as echoed in a problem: stripped, at most 40 characters ("…" after), "" for none. */
+    public static String echo(String input) {
+        String t = input == null ? "" : input.strip();
+        return t.length() > 40 ? t.substring(0, 40) + "…" : t;
+    }
 }

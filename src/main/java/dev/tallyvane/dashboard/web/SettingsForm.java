@@ -102,7 +102,7 @@ record SettingsForm(String granularity, String horizon, String metric, List<Stri
             try {
                 w.add(Double.parseDouble(parts[i]));
             } catch (NumberFormatException e) {
-                problems.add(new FieldProblem(null, "weights", "entry " + (i + 1) + " ('" + clip(parts[i])
+                problems.add(new FieldProblem(null, "weights", "entry " + (i + 1) + " ('" + InvalidRequest.echo(parts[i])
                         + "') is not a number; use a decimal point, e.g. 0.5"));
             }
         }
@@ -118,7 +118,7 @@ record SettingsForm(String granularity, String horizon, String metric, List<Stri
         try {
             return Integer.valueOf(text.trim());
         } catch (NumberFormatException e) {
-            problems.add(new FieldProblem(null, field, "'" + clip(text) + "' is not a whole number"));
+            problems.add(new FieldProblem(null, field, "'" + InvalidRequest.echo(text) + "' is not a whole number"));
             return null;
         }
     }
@@ -137,7 +137,7 @@ record SettingsForm(String granularity, String horizon, String metric, List<Stri
             try {
                 out.add(LocalDate.parse(parts[i]));
             } catch (DateTimeParseException e) {
-                problems.add(new FieldProblem(null, field, "entry " + (i + 1) + " ('" + clip(parts[i])
+                problems.add(new FieldProblem(null, field, "entry " + (i + 1) + " ('" + InvalidRequest.echo(parts[i])
                         + "') is not a date; write it as yyyy-mm-dd, e.g. 2026-12-25"));
             }
         }
@@ -146,10 +146,5 @@ record SettingsForm(String granularity, String horizon, String metric, List<Stri
 
     private static boolean blank(String s) {
         return s == null || s.isBlank();
-    }
-
-    private static String clip(String s) {
-        String t = s.trim();
-        return t.length() > 40 ? t.substring(0, 40) + "…" : t;
     }
 }
