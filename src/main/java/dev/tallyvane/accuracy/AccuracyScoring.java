@@ -123,14 +123,14 @@ class AccuracyScoring {
             }
             inserts.add(new Object[] {key.issuedId(), location.getId(), measure, granularity.name(), key.step(),
                     p.period(), p.forecast(), actual, p.benchmark(), actual >= p.lo80() && actual <= p.hi80(),
-                    actual >= p.lo95() && actual <= p.hi95(), p.maseScale(), Timestamp.from(now)});
+                    actual >= p.lo95() && actual <= p.hi95(), p.maseScale(), Timestamp.from(now), p.lo80(), p.hi80()});
         }
         for (Long id : superseded) {
             jdbc.update("update forecast_error set is_current = false where id = ?", id);
         }
         jdbc.batchUpdate("insert into forecast_error (issued_id, location_id, measure, granularity, step, period_start, "
-                + "forecast, actual, benchmark, in80, in95, mase_scale, scored_at, is_current) "
-                + "values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, true)", inserts);
+                + "forecast, actual, benchmark, in80, in95, mase_scale, scored_at, lo80, hi80, is_current) "
+                + "values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, true)", inserts);
         return inserts.size();
     }
 

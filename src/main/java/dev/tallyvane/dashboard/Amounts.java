@@ -35,6 +35,7 @@ public class Amounts {
                     f = NumberFormat.getNumberInstance(locale);
                 }
             }
+            f.setRoundingMode(dev.tallyvane.system.MoneyRounding.MODE);
             f.setMaximumFractionDigits(decimals);
             f.setMinimumFractionDigits(decimals);
             return f;

@@ -1,5 +1,6 @@
 package dev.tallyvane.dashboard;
 
+import dev.tallyvane.accuracy.ChainTotals;
 import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.DriftFlag;
 import dev.tallyvane.forecasting.IssuedForecast;
@@ -7,6 +8,7 @@ import dev.tallyvane.forecasting.RefitService;
 import dev.tallyvane.intake.FigureFacts;
 import dev.tallyvane.intake.FigureRules;
 import dev.tallyvane.location.Location;
+import dev.tallyvane.location.LocationService;
 import java.util.List;
 import java.util.Optional;
 import org.springframework.stereotype.Service;
@@ -22,9 +24,13 @@ public class LocationPage {
     private final FigureFacts figures;
     private final LocationCharts charts;
     private final JsonMapper json;
+    private final ChainTotals chainTotals;
+    private final LocationService locations;
 
     LocationPage(RefitService refits, FlagService accuracy, FigureFacts figures, LocationCharts charts,
-            JsonMapper json) {
+            JsonMapper json, ChainTotals chainTotals, LocationService locations) {
+        this.chainTotals = chainTotals;
+        this.locations = locations;
         this.refits = refits;
         this.accuracy = accuracy;
         this.figures = figures;
@@ -40,10 +46,18 @@ public class LocationPage {
      * @param lastOutcome what the last fit did (why there is no forecast yet), or null
      * @param chart       the forecast chart's numbers (also its data table), or null
      * @param accuracy    accuracy over time and by horizon
+     * @param chain       the chain's total (its active locations, this currency) for the forecast's first
+     *                    period, as the overview and the e-mail show it, or null
      */
     public record Content(IssuedForecast forecast, Leaderboard leaderboard, String lastOutcome,
             LocationCharts.ForecastChart chart, LocationCharts.AccuracyChart accuracy, List<DriftFlag> flags,
-            List<FigureFacts.Recent> recent) {
+            List<FigureFacts.Recent> recent, ChainTotals.Total chain) {
+
+        /** This location's first-period forecast as a share of the chain's, in percent, or NaN. */
+        public double chainSharePct() {
+            return chain == null || chain.forecast() == 0 || forecast.points().isEmpty() ? Double.NaN
+                    : 100 * forecast.points().get(0).forecast() / chain.forecast();
+        }
     }
 
     @Transactional(readOnly = true)
@@ -53,6 +67,9 @@ public class LocationPage {
         LocationCharts.Charts drawn = charts.of(l, f);
         return new Content(f.orElse(null), f.map(x -> Leaderboard.of(x, json)).orElse(null),
                 refits.lastOutcome(l.getId(), measure).orElse(null), drawn.forecast().orElse(null),
-                drawn.accuracy(), accuracy.flags(l.getId(), false), figures.recent(l.getId(), 60));
+                drawn.accuracy(), accuracy.flags(l.getId(), false), figures.recent(l.getId(), 60),
+                f.filter(x -> l.isActive() && !x.points().isEmpty()).flatMap(x -> chainTotals.of(measure,
+                        locations.all().stream().filter(Location::isActive).toList(), l.getCurrency(), x.granularity(),
+                        x.points().get(0).period())).orElse(null));
     }
 }

@@ -2,9 +2,9 @@ package dev.tallyvane.dashboard;
 
 import dev.tallyvane.accuracy.AccuracyReports;
 import dev.tallyvane.accuracy.AccuracyReports.Glance;
+import dev.tallyvane.accuracy.ChainTotals;
 import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.DriftFlag;
-import dev.tallyvane.forecasting.IssuedForecasts;
 import dev.tallyvane.forecasting.NextPeriods;
 import dev.tallyvane.forecasting.NextPeriods.Next;
 import dev.tallyvane.intake.FigureRules;
@@ -38,7 +38,7 @@ public class Overview {
     private final NextPeriods next;
     private final AccuracyReports accuracy;
     private final FlagService flagService;
-    private final IssuedForecasts issued;
+    private final ChainTotals chainTotals;
 
     /** The rows of every location, by code, with the data version they were read at. */
     private record Snapshot(List<Long> version, List<Row> rows) {
@@ -47,12 +47,12 @@ public class Overview {
     private volatile Snapshot snapshot = new Snapshot(List.of(), List.of());
 
     Overview(LocationService locations, NextPeriods next, AccuracyReports accuracy, FlagService flagService,
-            IssuedForecasts issued) {
+            ChainTotals chainTotals) {
         this.locations = locations;
         this.next = next;
         this.accuracy = accuracy;
         this.flagService = flagService;
-        this.issued = issued;
+        this.chainTotals = chainTotals;
     }
 
     /**
@@ -82,14 +82,14 @@ public class Overview {
     }
 
     /**
-     * Detects any change the overview shows: a new forecast (which also rewrites the accuracy
+     * Detects any change the overview shows: a new forecast or score (scoring rewrites the accuracy
      * glance and re-evaluates flags), a flag raised, cleared or acknowledged, a location added or
      * changed (its optimistic-lock version). Cheap: counts and maxima over small tables or keys, each
      * asked of the module that owns them.
      */
     private List<Long> dataVersion() {
         List<Long> v = new ArrayList<>();
-        v.add(issued.newestId());
+        v.addAll(chainTotals.version());
         v.addAll(flagService.flagsVersion());
         v.addAll(locations.version());
         return v;
@@ -194,13 +194,29 @@ public class Overview {
     }
 
     /**
-     * Chain total of one currency and next period: the sum of the point forecasts, and an 80% range
-     * from the sum of the locations' bounds (cautious: exact if locations move together, wider than
-     * needed if they vary independently). Last period: the sum of actuals against the sum of what
-     * was forecast for them, over the locations scored for that period.
+     * Chain total of one currency and granularity: next period's forecast and range as
+     * {@link ChainTotals} gives them everywhere (allowing for locations moving together). Last
+     * period: the sum of actuals against the sum of what was forecast for them, over the locations
+     * scored for that period.
      */
-    public record Total(String currency, String granularity, LocalDate period, int locations, double forecast,
-            double lo80, double hi80, LocalDate lastPeriod, int scored, double lastActual, double lastForecast) {
+    public record Total(ChainTotals.Total next, LocalDate lastPeriod, int scored, double lastActual,
+            double lastForecast) {
+
+        public String currency() {
+            return next.currency();
+        }
+
+        public String granularity() {
+            return next.granularity();
+        }
+
+        public LocalDate period() {
+            return next.period();
+        }
+
+        public int locations() {
+            return next.locations();
+        }
 
         public double lastErrorPct() {
             return lastActual == 0 ? Double.NaN : 100 * (lastActual - lastForecast) / lastActual;
@@ -271,40 +287,28 @@ public class Overview {
         return Comparator.comparing(key, Comparator.nullsLast(order));
     }
 
-    private static List<Total> totals(List<Row> rows) {
-        record Key(String currency, String granularity, LocalDate period) {
-        }
-        Map<Key, List<Row>> groups = new LinkedHashMap<>();
-        rows.stream().filter(r -> r.next() != null)
-                .sorted(Comparator.comparing((Row r) -> r.location().getCurrency())
-                        .thenComparing(r -> r.next().granularity()).thenComparing(r -> r.next().period()))
-                .forEach(r -> groups.computeIfAbsent(new Key(r.location().getCurrency(), r.next().granularity(),
-                        r.next().period()), k -> new ArrayList<>()).add(r));
+    private List<Total> totals(List<Row> rows) {
+        // closed locations keep their rows but not a part in the chain's total (as in the e-mail)
+        List<Location> forecast = rows.stream().filter(r -> r.next() != null && r.location().isActive())
+                .map(Row::location).toList();
         List<Total> out = new ArrayList<>();
-        groups.forEach((k, group) -> {
-            double f = 0;
-            double lo = 0;
-            double hi = 0;
-            for (Row r : group) {
-                f += r.next().forecast();
-                lo += r.next().lo80();
-                hi += r.next().hi80();
-            }
-            LocalDate last = group.stream().filter(r -> r.glance() != null).map(r -> r.glance().lastPeriod())
-                    .max(Comparator.naturalOrder()).orElse(null);
+        for (ChainTotals.Total t : chainTotals.next(FigureRules.DEFAULT_MEASURE, forecast)) {
+            List<Row> group = rows.stream().filter(r -> r.next() != null && r.glance() != null && r.location().isActive()
+                    && r.location().getCurrency().equals(t.currency()) && r.next().granularity().equals(t.granularity()))
+                    .toList();
+            LocalDate last = group.stream().map(r -> r.glance().lastPeriod()).max(Comparator.naturalOrder()).orElse(null);
             int scored = 0;
             double actual = 0;
-            double forecast = 0;
+            double lastForecast = 0;
             for (Row r : group) {
-                if (r.glance() != null && r.glance().lastPeriod().equals(last)) {
+                if (r.glance().lastPeriod().equals(last)) {
                     scored++;
                     actual += r.glance().lastActual();
-                    forecast += r.glance().lastForecast();
+                    lastForecast += r.glance().lastForecast();
                 }
             }
-            out.add(new Total(k.currency(), k.granularity(), k.period(), group.size(), f, lo, hi, last, scored, actual,
-                    forecast));
-        });
+            out.add(new Total(t, last, scored, actual, lastForecast));
+        }
         return out;
     }
 }

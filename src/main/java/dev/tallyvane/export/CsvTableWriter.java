@@ -36,7 +36,7 @@ final class CsvTableWriter implements TableWriter {
     public void row(Object... values) throws IOException {
         Object[] out = new Object[values.length];
         for (int i = 0; i < values.length; i++) {
-            Object v = values[i] instanceof Money m ? m.amount() : values[i];
+            Object v = values[i] instanceof Money m ? m.rounded() : values[i];
             if (v == null) {
                 out[i] = "";
             } else if (columns.get(i).kind() == Column.Kind.TEXT) {

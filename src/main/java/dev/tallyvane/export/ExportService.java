@@ -1,6 +1,7 @@
 package dev.tallyvane.export;
 
 import dev.tallyvane.accuracy.AccuracyReports;
+import dev.tallyvane.accuracy.ChainTotals;
 import dev.tallyvane.forecasting.IssuedForecasts;
 import dev.tallyvane.intake.FigureFacts;
 import dev.tallyvane.location.Location;
@@ -26,7 +27,7 @@ public class ExportService {
 
     /** What can be exported. */
     public enum Dataset {
-        FORECASTS, HISTORY, ACCURACY, FIGURES;
+        FORECASTS, HISTORY, ACCURACY, FIGURES, CHAIN;
 
         public static Dataset of(String name) {
             for (Dataset d : values()) {
@@ -61,8 +62,11 @@ public class ExportService {
     private final IssuedForecasts issued;
     private final AccuracyReports accuracy;
     private final FigureFacts figureFacts;
+    private final ChainTotals chainTotals;
 
-    ExportService(LocationService locations, IssuedForecasts issued, AccuracyReports accuracy, FigureFacts figureFacts) {
+    ExportService(LocationService locations, IssuedForecasts issued, AccuracyReports accuracy, FigureFacts figureFacts,
+            ChainTotals chainTotals) {
+        this.chainTotals = chainTotals;
         this.locations = locations;
         this.issued = issued;
         this.accuracy = accuracy;
@@ -79,6 +83,7 @@ public class ExportService {
                 case HISTORY -> history(r, w);
                 case ACCURACY -> accuracy(r, w);
                 case FIGURES -> figures(r, w);
+                case CHAIN -> chain(r, w);
             }
         } catch (UncheckedIOException e) {
             throw e.getCause();
@@ -149,6 +154,23 @@ public class ExportService {
             figureFacts.revisions(l.getId(), r.from(), r.to(), f -> write(w, l.getCode(), f.measure(), lower(f.granularity()),
                     f.period(), new Money(f.amount(), l.getCurrency()), f.replacedAt() == null ? "yes" : "no",
                     f.recordedAt(), f.replacedAt(), lower(f.source()), f.actor(), f.uploadId(), f.note()));
+        }
+    }
+
+    /**
+     * The chain's total for every period the locations' current forecasts reach, by currency and
+     * granularity, with the range the overview and the e-mail show and how it was built.
+     */
+    private void chain(Request r, TableWriter w) throws IOException {
+        w.header(List.of(Column.text("currency"), Column.text("measure"), Column.text("granularity"), Column.date("period"),
+                Column.integer("locations"), Column.amount("forecast"), Column.amount("lo80"), Column.amount("hi80"),
+                Column.amount("lo95"), Column.amount("hi95"), Column.text("range_basis"), Column.number("correlation"),
+                Column.integer("periods_scored_together"), Column.text("assumption")));
+        for (ChainTotals.Total t : chainTotals.ahead(r.measure(), covered(r))) {
+            String cur = t.currency();
+            w.row(cur, r.measure(), t.granularity(), t.period(), t.locations(), new Money(t.forecast(), cur),
+                    new Money(t.lo80(), cur), new Money(t.hi80(), cur), new Money(t.lo95(), cur), new Money(t.hi95(), cur),
+                    t.basisCode(), Double.isNaN(t.correlation()) ? null : t.correlation(), t.periods(), t.assumption());
         }
     }
 

@@ -103,7 +103,7 @@ final class XlsxTableWriter implements TableWriter {
             CellStyle money = null;
             if (v instanceof Money m) {
                 money = currencyStyle(m.currency());
-                v = m.amount();
+                v = m.rounded();
             }
             if (v == null) {
                 continue;
@@ -134,12 +134,7 @@ final class XlsxTableWriter implements TableWriter {
     /** #,##0.00 "EUR" with the currency's number of decimals. */
     private CellStyle currencyStyle(String code) {
         return currencies.computeIfAbsent(code, k -> {
-            int digits;
-            try {
-                digits = Math.max(0, java.util.Currency.getInstance(k).getDefaultFractionDigits());
-            } catch (IllegalArgumentException e) {
-                digits = 2;
-            }
+            int digits = dev.tallyvane.system.MoneyRounding.decimals(k);
             return style("#,##0" + (digits > 0 ? "." + "0".repeat(digits) : "") + " \"" + k + "\"");
         });
     }

@@ -65,6 +65,15 @@ public class IssuedForecasts {
                 }, locationId);
     }
 
+    /** The points of every location's newest forecast of a measure, by location and step. */
+    @Transactional(readOnly = true)
+    public void newestOfEach(String measure, Consumer<IssuedPoint> to) {
+        streaming.query(POINT + "where f.id in (select max(f2.id) from issued_forecast f2 where f2.measure = ? "
+                + "group by f2.location_id) order by f.location_id, p.step", rs -> {
+                    to.accept(point(rs));
+                }, measure);
+    }
+
     /** Every point of the forecasts of a location issued in [from, to) (either open when null), in issue order. */
     @Transactional(readOnly = true)
     public void issuedBetween(long locationId, Instant from, Instant to, Consumer<IssuedPoint> out) {

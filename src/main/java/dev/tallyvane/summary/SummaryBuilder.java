@@ -1,5 +1,6 @@
 package dev.tallyvane.summary;
 
+import dev.tallyvane.accuracy.ChainTotals;
 import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.forecasting.IssuedForecasts;
@@ -8,31 +9,33 @@ import dev.tallyvane.intake.FigureRules;
 import dev.tallyvane.intake.SeriesReader;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
+import dev.tallyvane.system.MoneyRounding;
 import java.math.BigDecimal;
-import java.math.RoundingMode;
 import java.time.LocalDate;
 import java.time.ZoneId;
 import java.util.ArrayList;
-import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Map;
+import java.util.Locale;
 import java.util.TreeMap;
 import org.springframework.stereotype.Component;
 import org.springframework.transaction.annotation.Transactional;
 
 /**
- * Computes a week's summary from the database: per location last week's actual (net sales, daily
- * figures rolled up to the ISO week), what the newest weekly forecast made from data that ended
- * before the week said for it, next week's forecast with its 80% interval, open drift flags (not snoozed) and
- * missing figures; the chain's totals; and the chain's weekly chart data.
+ * Computes a week's summary from the database, each location at the granularity it is forecast
+ * at. A location forecast by the week: last week's actual (daily figures rolled up to the ISO
+ * week), what the newest weekly forecast made from data that ended before the week said for it,
+ * and next week's forecast with its 80% interval. A location forecast by the month (monthly
+ * figures only): the same for the last month ended by the week's Sunday and the month after.
+ * Then open drift flags (not snoozed), missing figures, the chain's totals and the chain's weekly
+ * chart data.
  *
- * <p>Chain intervals add the locations' variances, σ² = Σσᵢ² with σᵢ = (hi80 − lo80)/(2·1.2816),
- * which assumes the locations' forecast errors are independent (stated in the e-mail's footnote).
+ * <p>The chain's next-period totals and the chart's weeks ahead are {@link ChainTotals}' (the
+ * ranges the overview and the exports show, allowing for locations moving together); the line
+ * says in one sentence how its range was built.
  */
 @Component
 class SummaryBuilder {
 
-    private static final double Z80 = 1.2815515655446004;
     private static final int CHART_WEEKS_BACK = 12;
     private static final int CHART_WEEKS_AHEAD = 8;
 
@@ -41,94 +44,115 @@ class SummaryBuilder {
     private final FigureFacts figures;
     private final IssuedForecasts issued;
     private final FlagService flagService;
+    private final ChainTotals chainTotals;
 
     SummaryBuilder(LocationService locations, SeriesReader reader, FigureFacts figures, IssuedForecasts issued,
-            FlagService flagService) {
+            FlagService flagService, ChainTotals chainTotals) {
         this.locations = locations;
         this.reader = reader;
         this.figures = figures;
         this.issued = issued;
         this.flagService = flagService;
+        this.chainTotals = chainTotals;
     }
 
     @Transactional(readOnly = true)
     WeeklySummary build(LocalDate weekStart, ZoneId zone) {
         String measure = FigureRules.DEFAULT_MEASURE;
-        List<WeeklySummary.Line> lines = new ArrayList<>();
-        Map<String, double[]> chain = new LinkedHashMap<>();
+        List<WeeklySummary.Line> weekly = new ArrayList<>();
+        List<WeeklySummary.Line> monthly = new ArrayList<>();
+        List<Location> byWeek = new ArrayList<>();
+        List<Location> byMonthList = new ArrayList<>();
         TreeMap<LocalDate, Double> chartActual = new TreeMap<>();
-        TreeMap<LocalDate, double[]> chartAhead = new TreeMap<>();
         String chartCurrency = null;
         boolean anyFigures = false;
-        LocalDate nextWeek = weekStart.plusWeeks(1);
+        LocalDate lastMonth = Granularity.MONTH.periodStart(weekStart.plusDays(7)).minusMonths(1);
         for (Location l : locations.all()) {
             if (!l.isActive()) {
                 continue;
             }
-            List<SeriesReader.Point> weeks = reader.read(l, measure, Granularity.WEEK, null,
-                    weekStart.minusWeeks(CHART_WEEKS_BACK - 1), weekStart).points();
-            BigDecimal actual = weeks.stream().filter(p -> p.period().equals(weekStart)).map(SeriesReader.Point::amount)
+            boolean byMonth = issued.latest(l.getId(), measure)
+                    .map(f -> Granularity.MONTH.name().equals(f.granularity())).orElse(false);
+            Granularity g = byMonth ? Granularity.MONTH : Granularity.WEEK;
+            LocalDate period = byMonth ? lastMonth : weekStart;
+            List<SeriesReader.Point> points = reader.read(l, measure, g, null,
+                    byMonth ? period : weekStart.minusWeeks(CHART_WEEKS_BACK - 1), period).points();
+            BigDecimal actual = points.stream().filter(p -> p.period().equals(period)).map(SeriesReader.Point::amount)
                     .findFirst().orElse(null);
             anyFigures |= actual != null;
-            BigDecimal forecast = issued.madeAhead(l.getId(), measure, Granularity.WEEK.name(), weekStart)
-                    .map(p -> money(p.forecast())).orElse(null);
-            List<double[]> ahead = issued.newestFrom(l.getId(), measure, Granularity.WEEK.name(), nextWeek).stream()
-                    .map(p -> new double[] {p.period().toEpochDay(), p.forecast(), p.lo80(), p.hi80()}).toList();
-            double[] next = ahead.stream().filter(a -> (long) a[0] == nextWeek.toEpochDay()).findFirst().orElse(null);
-            List<String> flags = flagService.attention(l.getId(), measure);
-            LocalDate lastFigure = actual != null ? null : figures.latestPeriod(l.getId(), measure).orElse(null);
-            lines.add(new WeeklySummary.Line(l.getCode(), l.getName(), l.getCurrency(), actual, forecast,
-                    next == null ? null : money(next[1]), next == null ? null : money(next[2]),
-                    next == null ? null : money(next[3]), flags, lastFigure));
-            double[] c = chain.computeIfAbsent(l.getCurrency(), k -> new double[6]);
-            if (actual != null && forecast != null) {
-                c[0] += actual.doubleValue();
-                c[1] += forecast.doubleValue();
-                c[5] = 1;
+            WeeklySummary.Line line = line(l, measure, g, period, actual);
+            if (byMonth) {
+                monthly.add(line);
+                byMonthList.add(l);
+                continue;
             }
-            if (next != null) {
-                c[2] += next[1];
-                c[3] += sigma(next);
-                c[4] = 1;
-            }
+            weekly.add(line);
+            byWeek.add(l);
             if (chartCurrency == null || chartCurrency.equals(l.getCurrency())) {
                 chartCurrency = l.getCurrency();
-                for (SeriesReader.Point p : weeks) {
+                for (SeriesReader.Point p : points) {
                     chartActual.merge(p.period(), p.amount().doubleValue(), Double::sum);
-                }
-                for (double[] a : ahead) {
-                    LocalDate w = LocalDate.ofEpochDay((long) a[0]);
-                    if (chartAhead.size() < CHART_WEEKS_AHEAD || chartAhead.containsKey(w)) {
-                        double[] sum = chartAhead.computeIfAbsent(w, k -> new double[2]);
-                        sum[0] += a[1];
-                        sum[1] += sigma(a);
-                    }
                 }
             }
         }
         List<WeeklySummary.Line> totals = new ArrayList<>();
-        chain.forEach((currency, c) -> {
-            double sd = Math.sqrt(c[3]);
-            totals.add(new WeeklySummary.Line("", "All locations", currency, c[5] > 0 ? money(c[0]) : null,
-                    c[5] > 0 ? money(c[1]) : null, c[4] > 0 ? money(c[2]) : null, c[4] > 0 ? money(c[2] - Z80 * sd) : null,
-                    c[4] > 0 ? money(c[2] + Z80 * sd) : null, List.of(), null));
-        });
-        List<LocalDate> aheadWeeks = new ArrayList<>(chartAhead.keySet());
+        totals.addAll(chain(measure, Granularity.WEEK, weekStart, weekly, byWeek));
+        totals.addAll(chain(measure, Granularity.MONTH, lastMonth, monthly, byMonthList));
+        String currency = chartCurrency;
+        LocalDate nextWeek = weekStart.plusWeeks(1);
+        List<ChainTotals.Total> ahead = chainTotals.ahead(measure, byWeek).stream()
+                .filter(t -> t.currency().equals(currency) && "week".equals(t.granularity())
+                        && !t.period().isBefore(nextWeek))
+                .limit(CHART_WEEKS_AHEAD).toList();
         WeeklySummary.Chart chart = new WeeklySummary.Chart(chartCurrency, new ArrayList<>(chartActual.keySet()),
-                new ArrayList<>(chartActual.values()), aheadWeeks,
-                aheadWeeks.stream().map(w -> chartAhead.get(w)[0]).toList(),
-                aheadWeeks.stream().map(w -> chartAhead.get(w)[0] - Z80 * Math.sqrt(chartAhead.get(w)[1])).toList(),
-                aheadWeeks.stream().map(w -> chartAhead.get(w)[0] + Z80 * Math.sqrt(chartAhead.get(w)[1])).toList());
-        return new WeeklySummary(weekStart, lines, totals, chart, anyFigures);
+                new ArrayList<>(chartActual.values()), ahead.stream().map(ChainTotals.Total::period).toList(),
+                ahead.stream().map(ChainTotals.Total::forecast).toList(),
+                ahead.stream().map(ChainTotals.Total::lo80).toList(), ahead.stream().map(ChainTotals.Total::hi80).toList());
+        return new WeeklySummary(weekStart, weekly, monthly, totals, chart, anyFigures);
     }
 
-    /** σ² of one forecast point [period, forecast, lo80, hi80]. */
-    private static double sigma(double[] point) {
-        double s = (point[3] - point[2]) / (2 * Z80);
-        return s * s;
+    /**
+     * The chain's lines of one granularity, one per currency: the period's actuals against what was
+     * forecast for them (over the locations with both), and the next period's total and range.
+     */
+    private List<WeeklySummary.Line> chain(String measure, Granularity g, LocalDate period, List<WeeklySummary.Line> lines,
+            List<Location> of) {
+        List<WeeklySummary.Line> out = new ArrayList<>();
+        LocalDate nextPeriod = g.plus(period, 1);
+        for (String currency : lines.stream().map(WeeklySummary.Line::currency).distinct().sorted().toList()) {
+            List<WeeklySummary.Line> scored = lines.stream()
+                    .filter(l -> l.currency().equals(currency) && l.actual() != null && l.forecast() != null).toList();
+            BigDecimal actual = scored.isEmpty() ? null
+                    : scored.stream().map(WeeklySummary.Line::actual).reduce(BigDecimal.ZERO, BigDecimal::add);
+            BigDecimal forecast = scored.isEmpty() ? null
+                    : scored.stream().map(WeeklySummary.Line::forecast).reduce(BigDecimal.ZERO, BigDecimal::add);
+            ChainTotals.Total next = chainTotals.of(measure, of, currency, g.name(), nextPeriod).orElse(null);
+            if (actual == null && next == null) {
+                continue;
+            }
+            out.add(new WeeklySummary.Line("", "All locations", currency, g.name().toLowerCase(Locale.ROOT), period,
+                    actual, forecast, nextPeriod, next == null ? null : MoneyRounding.round(next.forecast(), currency),
+                    next == null ? null : MoneyRounding.round(next.lo80(), currency),
+                    next == null ? null : MoneyRounding.round(next.hi80(), currency), List.of(), null,
+                    next == null ? "" : next.assumption()));
+        }
+        return out;
     }
 
-    private static BigDecimal money(double v) {
-        return BigDecimal.valueOf(v).setScale(2, RoundingMode.HALF_UP);
+    /** A location's line for {@code period} at granularity {@code g}, with the period after it. */
+    private WeeklySummary.Line line(Location l, String measure, Granularity g, LocalDate period, BigDecimal actual) {
+        String cur = l.getCurrency();
+        BigDecimal forecast = issued.madeAhead(l.getId(), measure, g.name(), period)
+                .map(p -> MoneyRounding.round(p.forecast(), cur))
+                .orElse(null);
+        LocalDate nextPeriod = g.plus(period, 1);
+        IssuedForecasts.IssuedPoint next = issued.newestFrom(l.getId(), measure, g.name(), nextPeriod).stream()
+                .filter(p -> p.period().equals(nextPeriod)).findFirst().orElse(null);
+        List<String> flags = flagService.attention(l.getId(), measure);
+        LocalDate lastFigure = actual != null ? null : figures.latestPeriod(l.getId(), measure).orElse(null);
+        return new WeeklySummary.Line(l.getCode(), l.getName(), l.getCurrency(), g.name().toLowerCase(Locale.ROOT),
+                period, actual, forecast, nextPeriod, next == null ? null : MoneyRounding.round(next.forecast(), cur),
+                next == null ? null : MoneyRounding.round(next.lo80(), cur),
+                next == null ? null : MoneyRounding.round(next.hi80(), cur), flags, lastFigure, "");
     }
 }

@@ -60,6 +60,15 @@ class SummaryMail {
         public String day(java.time.LocalDate d) {
             return d == null ? "" : DateTimeFormatter.ofPattern("d MMM yyyy", locale).format(d);
         }
+
+        public String month(java.time.LocalDate d) {
+            return d == null ? "" : DateTimeFormatter.ofPattern("LLLL yyyy", locale).format(d);
+        }
+
+        /** "next week" or the month's name, for the line's next period. */
+        String next(WeeklySummary.Line l) {
+            return l.monthly() ? month(l.nextPeriod()) : "next week";
+        }
     }
 
     Rendered render(WeeklySummary summary, String recipientName, String unsubscribeUrl, String chartSrc) {
@@ -87,35 +96,58 @@ class SummaryMail {
             t.append("No figures arrived for this week. Tallyvane will catch up as soon as they do.\n\n");
         }
         for (WeeklySummary.Line c : s.chain()) {
-            t.append("All locations: actual ").append(fmt.money(c.actual(), c.currency())).append(", forecast ")
+            t.append("All locations").append(c.monthly() ? ", " + fmt.month(c.period()) : "").append(": actual ")
+                    .append(fmt.money(c.actual(), c.currency())).append(", forecast ")
                     .append(fmt.money(c.forecast(), c.currency())).append(", error ").append(fmt.money(c.error(), c.currency()))
-                    .append(" (").append(fmt.percent(c.errorPercent())).append("); next week ")
-                    .append(fmt.money(c.nextForecast(), c.currency())).append(" (80% range ")
-                    .append(fmt.money(c.nextLo80(), c.currency())).append(" – ").append(fmt.money(c.nextHi80(), c.currency()))
-                    .append(")\n");
+                    .append(" (").append(fmt.percent(c.errorPercent())).append("); ").append(fmt.next(c)).append(" ");
+            range(t, fmt, c);
+            if (!c.note().isEmpty()) {
+                t.append("  ").append(c.note()).append("\n");
+            }
         }
         t.append("\n");
         for (WeeklySummary.Line l : s.locations()) {
-            t.append(l.code()).append(" ").append(l.name()).append(": ");
-            if (l.actual() == null) {
-                t.append(l.lastFigureOn() == null ? "no figures yet" : "no figures since " + fmt.day(l.lastFigureOn()));
-            } else {
-                t.append("actual ").append(fmt.money(l.actual(), l.currency())).append(", forecast ")
-                        .append(fmt.money(l.forecast(), l.currency())).append(", error ")
-                        .append(fmt.money(l.error(), l.currency())).append(" (").append(fmt.percent(l.errorPercent()))
-                        .append(")");
-            }
-            t.append("; next week ").append(fmt.money(l.nextForecast(), l.currency())).append(" (80% range ")
-                    .append(fmt.money(l.nextLo80(), l.currency())).append(" – ").append(fmt.money(l.nextHi80(), l.currency()))
-                    .append(")\n");
-            for (String flag : l.flags()) {
-                t.append("  Needs attention: ").append(flag).append("\n");
+            location(t, fmt, l);
+        }
+        if (!s.monthly().isEmpty()) {
+            t.append("\nLocations reporting by the month:\n");
+            for (WeeklySummary.Line l : s.monthly()) {
+                location(t, fmt, l);
             }
         }
         t.append("\nForecasts are estimates, not guarantees: the 80% range is where the figure will likely fall.\n");
         t.append("Dashboard: ").append(properties.dashboardUrl()).append("\n");
         t.append("Stop these e-mails: ").append(unsubscribeUrl).append("\n");
         return t.toString();
+    }
+
+    private static void location(StringBuilder t, Formats fmt, WeeklySummary.Line l) {
+        t.append(l.code()).append(" ").append(l.name()).append(": ");
+        if (l.monthly()) {
+            t.append(fmt.month(l.period())).append(" ");
+        }
+        if (l.actual() == null) {
+            t.append(l.lastFigureOn() == null ? "no figures yet" : "no figures since " + fmt.day(l.lastFigureOn()));
+        } else {
+            t.append("actual ").append(fmt.money(l.actual(), l.currency())).append(", forecast ")
+                    .append(fmt.money(l.forecast(), l.currency())).append(", error ")
+                    .append(fmt.money(l.error(), l.currency())).append(" (").append(fmt.percent(l.errorPercent()))
+                    .append(")");
+        }
+        t.append("; ").append(fmt.next(l)).append(" ");
+        range(t, fmt, l);
+        for (String flag : l.flags()) {
+            t.append("  Needs attention: ").append(flag).append("\n");
+        }
+    }
+
+    private static void range(StringBuilder t, Formats fmt, WeeklySummary.Line l) {
+        t.append(fmt.money(l.nextForecast(), l.currency()));
+        if (l.nextForecast() != null) {
+            t.append(" (80% range ").append(fmt.money(l.nextLo80(), l.currency())).append(" – ")
+                    .append(fmt.money(l.nextHi80(), l.currency())).append(")");
+        }
+        t.append("\n");
     }
 
     void send(String to, Rendered mail, String unsubscribeUrl) throws MessagingException {

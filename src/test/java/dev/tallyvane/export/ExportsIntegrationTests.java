@@ -103,6 +103,10 @@ class ExportsIntegrationTests {
                 .contentType(MediaType.APPLICATION_JSON).content(json)).andExpect(status().isOk());
     }
 
+    private static double cents(double v) {
+        return java.math.BigDecimal.valueOf(v).setScale(2, java.math.RoundingMode.HALF_UP).doubleValue();
+    }
+
     private MvcResult download(MockHttpServletRequestBuilder request) throws Exception {
         MvcResult started = mvc.perform(request).andReturn();
         return mvc.perform(asyncDispatch(started)).andExpect(status().isOk()).andReturn();
@@ -159,10 +163,11 @@ class ExportsIntegrationTests {
                 assertThat(DateUtil.isCellDateFormatted(period)).isTrue();
                 assertThat(period.getLocalDateTimeCellValue().toLocalDate())
                         .isEqualTo(((java.sql.Date) db.get(i).get("period_start")).toLocalDate());
-                assertThat(row.getCell(5).getNumericCellValue()).isEqualTo((Double) db.get(i).get("forecast"));
+                // amounts are rounded to the currency's decimals (EUR: 2), the same values as in the CSV
+                assertThat(row.getCell(5).getNumericCellValue()).isEqualTo(cents((Double) db.get(i).get("forecast")));
                 assertThat(row.getCell(5).getCellStyle().getDataFormatString()).contains("EUR");
-                assertThat(row.getCell(6).getNumericCellValue()).isEqualTo((Double) db.get(i).get("lo80"));
-                assertThat(row.getCell(9).getNumericCellValue()).isEqualTo((Double) db.get(i).get("hi95"));
+                assertThat(row.getCell(6).getNumericCellValue()).isEqualTo(cents((Double) db.get(i).get("lo80")));
+                assertThat(row.getCell(9).getNumericCellValue()).isEqualTo(cents((Double) db.get(i).get("hi95")));
             }
         }
     }

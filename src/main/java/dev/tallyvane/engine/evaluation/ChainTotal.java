@@ -44,8 +44,9 @@ public final class ChainTotal {
     /** Periods with two or more locations scored needed before the past errors are trusted. */
     public static final int MIN_PERIODS = 8;
 
-    static final double Z80 = 1.2815515655446004;
-    static final double Z95 = 1.959963984540054;
+    /** Standard normal quantiles of the 80% and 95% central ranges. */
+    public static final double Z80 = 1.2815515655446004;
+    public static final double Z95 = 1.959963984540054;
 
     private ChainTotal() {
     }

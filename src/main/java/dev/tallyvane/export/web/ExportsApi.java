@@ -34,7 +34,8 @@ class ExportsApi {
     @Operation(summary = "Download an export (CSV or XLSX)", description = """
             dataset: forecasts (current forecast per location with 80%/95% intervals), history (issued forecasts \
             with their data cutoff beside actuals and errors; from/to filter the issue date), accuracy (per \
-            location and horizon), figures (stored figures with every revision; from/to filter the period). \
+            location and horizon), figures (stored figures with every revision; from/to filter the period), chain (the chain's total per \
+            currency and period ahead with its 80%/95% ranges and how they allow for locations moving together). \
             Format by the format parameter or the Accept header (text/csv or the XLSX media type). CSV is UTF-8 \
             with RFC 4180 quoting; separator comma or semicolon. Text cells starting with = + - @ are neutralised.""")
     @GetMapping("/api/v1/exports/{dataset}")
