@@ -119,8 +119,12 @@ class FigureCorrectionIntegrationTests {
         assertThat(html).contains("Corrected\n            <span>net_sales " + day + ": 101 → 1,150.50</span>")
                 .contains("<td>the till counted one sale twice</td>").contains("correction · bea");
         // the figures export carries the revision with its reason
-        String export = mvc.perform(get("/exports/figures").param("format", "csv").param("location", code)
-                .with(bookkeeper)).andExpect(status().isOk()).andReturn().getResponse().getContentAsString();
+        // (the body streams asynchronously: dispatch it, never read it before it is written)
+        var started = mvc.perform(get("/exports/figures").param("format", "csv").param("location", code)
+                .with(bookkeeper)).andReturn();
+        String export = mvc.perform(org.springframework.test.web.servlet.request.MockMvcRequestBuilders
+                .asyncDispatch(started)).andExpect(status().isOk()).andReturn().getResponse()
+                .getContentAsString(java.nio.charset.StandardCharsets.UTF_8);
         assertThat(export.lines().findFirst().orElseThrow()).endsWith(",upload,reason");
         assertThat(export).contains(",correction,bea,,the till counted one sale twice");
         // the correction is a change like any other: the series is fitted again
