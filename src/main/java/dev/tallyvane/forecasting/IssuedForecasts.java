@@ -59,19 +59,22 @@ public class IssuedForecasts {
     /** The points of each measure's newest forecast of a location, by measure and step. */
     @Transactional(readOnly = true)
     public void current(long locationId, Consumer<IssuedPoint> to) {
-        streaming.query(POINT + "where f.id in (select max(f2.id) from issued_forecast f2 where f2.location_id = ? "
-                + "group by f2.measure) order by f.measure, p.step", rs -> {
-                    to.accept(point(rs));
-                }, locationId);
+        stream(POINT + "where f.id in (select max(f2.id) from issued_forecast f2 where f2.location_id = ? "
+                + "group by f2.measure) order by f.measure, p.step", to, locationId);
     }
 
     /** The points of every location's newest forecast of a measure, by location and step. */
     @Transactional(readOnly = true)
     public void newestOfEach(String measure, Consumer<IssuedPoint> to) {
-        streaming.query(POINT + "where f.id in (select max(f2.id) from issued_forecast f2 where f2.measure = ? "
-                + "group by f2.location_id) order by f.location_id, p.step", rs -> {
-                    to.accept(point(rs));
-                }, measure);
+        stream(POINT + "where f.id in (select max(f2.id) from issued_forecast f2 where f2.measure = ? "
+                + "group by f2.location_id) order by f.location_id, p.step", to, measure);
+    }
+
+    /** Streams the points a query selects to {@code to}, row by row through the cursor. */
+    private void stream(String sql, Consumer<IssuedPoint> to, Object... args) {
+        streaming.query(sql, rs -> {
+            to.accept(point(rs));
+        }, args);
     }
 
     /** Every point of the forecasts of a location issued in [from, to) (either open when null), in issue order. */
@@ -87,9 +90,7 @@ public class IssuedForecasts {
             where += " and f.issued_at < ?";
             args.add(Timestamp.from(to));
         }
-        streaming.query(POINT + where + " order by f.measure, f.issued_at, f.id, p.step", rs -> {
-            out.accept(point(rs));
-        }, args.toArray());
+        stream(POINT + where + " order by f.measure, f.issued_at, f.id, p.step", out, args.toArray());
     }
 
     /** The open (not closed-day) points of a series' forecasts at one granularity whose period starts by {@code through}. */

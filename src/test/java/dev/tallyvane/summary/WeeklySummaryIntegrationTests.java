@@ -238,6 +238,9 @@ class WeeklySummaryIntegrationTests {
             assertThat(html).contains(new SummaryMail.Formats(Locale.forLanguageTag("en-GB"))
                     .money(BigDecimal.valueOf(forecast).setScale(2, java.math.RoundingMode.HALF_UP), "EUR"));
         }
+        // the chain's line (one shared fragment for weekly and monthly rows) and how its range was built
+        assertThat(html).contains("<td>All locations</td>").contains("All locations, weeks:");
+        assertThat(text).contains("All locations: actual");
         assertThat(html).contains("cid:chart").contains("Forecasts are estimates").contains("https://tallyvane.example.test");
         assertThat(text).contains("Forecasts are estimates");
         Path eml = Path.of("target", "weekly-summary.eml");
