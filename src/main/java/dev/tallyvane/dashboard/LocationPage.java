@@ -4,6 +4,7 @@ import dev.tallyvane.accuracy.ChainTotals;
 import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.DriftFlag;
 import dev.tallyvane.forecasting.IssuedForecast;
+import dev.tallyvane.forecasting.NextDays;
 import dev.tallyvane.forecasting.RefitService;
 import dev.tallyvane.intake.FigureFacts;
 import dev.tallyvane.intake.FigureRules;
@@ -26,9 +27,11 @@ public class LocationPage {
     private final JsonMapper json;
     private final ChainTotals chainTotals;
     private final LocationService locations;
+    private final NextDays nextDays;
 
     LocationPage(RefitService refits, FlagService accuracy, FigureFacts figures, LocationCharts charts,
-            JsonMapper json, ChainTotals chainTotals, LocationService locations) {
+            JsonMapper json, ChainTotals chainTotals, LocationService locations, NextDays nextDays) {
+        this.nextDays = nextDays;
         this.chainTotals = chainTotals;
         this.locations = locations;
         this.refits = refits;
@@ -48,10 +51,11 @@ public class LocationPage {
      * @param accuracy    accuracy over time and by horizon
      * @param chain       the chain's total (its active locations, this currency) for the forecast's first
      *                    period, as the overview and the e-mail show it, or null
+     * @param days        the next days by day (the staffing view), or null without a forecast
      */
     public record Content(IssuedForecast forecast, Leaderboard leaderboard, String lastOutcome,
             LocationCharts.ForecastChart chart, LocationCharts.AccuracyChart accuracy, List<DriftFlag> flags,
-            List<FigureFacts.Recent> recent, ChainTotals.Total chain) {
+            List<FigureFacts.Recent> recent, ChainTotals.Total chain, NextDays.Plan days) {
 
         /** This location's first-period forecast as a share of the chain's, in percent, or NaN. */
         public double chainSharePct() {
@@ -70,6 +74,7 @@ public class LocationPage {
                 drawn.accuracy(), accuracy.flags(l.getId(), false), figures.recent(l.getId(), 60),
                 f.filter(x -> l.isActive() && !x.points().isEmpty()).flatMap(x -> chainTotals.of(measure,
                         locations.all().stream().filter(Location::isActive).toList(), l.getCurrency(), x.granularity(),
-                        x.points().get(0).period())).orElse(null));
+                        x.points().get(0).period())).orElse(null),
+                l.isActive() ? nextDays.of(l, measure).orElse(null) : null);
     }
 }

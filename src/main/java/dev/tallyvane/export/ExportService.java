@@ -3,6 +3,7 @@ package dev.tallyvane.export;
 import dev.tallyvane.accuracy.AccuracyReports;
 import dev.tallyvane.accuracy.ChainTotals;
 import dev.tallyvane.forecasting.IssuedForecasts;
+import dev.tallyvane.forecasting.NextDays;
 import dev.tallyvane.intake.FigureFacts;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
@@ -27,7 +28,7 @@ public class ExportService {
 
     /** What can be exported. */
     public enum Dataset {
-        FORECASTS, HISTORY, ACCURACY, FIGURES, CHAIN;
+        FORECASTS, HISTORY, ACCURACY, FIGURES, CHAIN, DAYS;
 
         public static Dataset of(String name) {
             for (Dataset d : values()) {
@@ -63,9 +64,11 @@ public class ExportService {
     private final AccuracyReports accuracy;
     private final FigureFacts figureFacts;
     private final ChainTotals chainTotals;
+    private final NextDays nextDays;
 
     ExportService(LocationService locations, IssuedForecasts issued, AccuracyReports accuracy, FigureFacts figureFacts,
-            ChainTotals chainTotals) {
+            ChainTotals chainTotals, NextDays nextDays) {
+        this.nextDays = nextDays;
         this.chainTotals = chainTotals;
         this.locations = locations;
         this.issued = issued;
@@ -84,6 +87,7 @@ public class ExportService {
                 case ACCURACY -> accuracy(r, w);
                 case FIGURES -> figures(r, w);
                 case CHAIN -> chain(r, w);
+                case DAYS -> days(r, w);
             }
         } catch (UncheckedIOException e) {
             throw e.getCause();
@@ -171,6 +175,29 @@ public class ExportService {
             w.row(cur, r.measure(), t.granularity(), t.period(), t.locations(), new Money(t.forecast(), cur),
                     new Money(t.lo80(), cur), new Money(t.hi80(), cur), new Money(t.lo95(), cur), new Money(t.hi95(), cur),
                     t.basisCode(), Double.isNaN(t.correlation()) ? null : t.correlation(), t.periods(), t.assumption());
+        }
+    }
+
+    /**
+     * The staffing view: each location's next days by day (a weekly or monthly forecast split over its days),
+     * with the planning period each day belongs to and that period's forecast, which its days add up to.
+     */
+    private void days(Request r, TableWriter w) throws IOException {
+        w.header(List.of(Column.text("location"), Column.text("location_name"), Column.text("measure"),
+                Column.date("date"), Column.text("weekday"), Column.text("closed"), Column.amount("forecast"),
+                Column.amount("lo80"), Column.amount("hi80"), Column.amount("lo95"), Column.amount("hi95"),
+                Column.text("planning_granularity"), Column.date("period"), Column.amount("period_forecast"),
+                Column.integer("forecast_id"), Column.timestamp("issued_at")));
+        for (Location l : covered(r)) {
+            if (!l.isActive()) {
+                continue;
+            }
+            String cur = l.getCurrency();
+            nextDays.of(l, r.measure()).ifPresent(p -> p.days().forEach(d -> write(w, l.getCode(), l.getName(),
+                    r.measure(), d.date(), lower(d.weekday().name()), yesNo(d.closed()), new Money(d.forecast(), cur),
+                    new Money(d.lo80(), cur), new Money(d.hi80(), cur), new Money(d.lo95(), cur),
+                    new Money(d.hi95(), cur), p.granularity(), d.periodStart(), new Money(d.periodForecast(), cur),
+                    p.forecastId(), p.issuedAt())));
         }
     }
 

@@ -38,6 +38,12 @@ public class Times {
         return format(instant, null, SECONDS);
     }
 
+    /** The day of the week of a date in the reader's language, e.g. "Monday" or "Montag". */
+    public String weekday(java.time.LocalDate date) {
+        return date.getDayOfWeek().getDisplayName(java.time.format.TextStyle.FULL,
+                org.springframework.context.i18n.LocaleContextHolder.getLocale());
+    }
+
     private String format(Instant instant, String zone, DateTimeFormatter f) {
         if (instant == null) {
             return "";

@@ -184,6 +184,28 @@ class DashboardBrowserTests {
                         + "&& c !== null && c.getAttribute('data-points') === '24'")));
         assertThat(browser.all("#forecast-table tbody tr")).hasSize(4);
 
+        // the staffing view: a closed Wednesday ahead entered in the settings shows as closed among the
+        // next 14 days, the other days carry a forecast and ranges, and the days can be downloaded
+        browser.find("#closedDays").clear();
+        browser.find("#closedDays").sendKeys("2026-12-09\n2026-12-25");
+        browser.find("#settings button[type=submit]").click();
+        assertThat(browser.await(".alert.info", 10).getText()).contains("Forecast settings saved");
+        Awaitility.await().atMost(Duration.ofSeconds(30)).pollInterval(Duration.ofMillis(200))
+                .until(() -> queue.status(id).idle() && refits.current(id, FigureRules.DEFAULT_MEASURE)
+                        .map(f -> f.notesJson().contains("closed days")).orElse(false));
+        browser.go("/locations/QUAY");
+        WebElement days = browser.await("#next-days-table", 10);
+        assertThat(browser.all("#next-days-table tbody tr")).hasSize(14);
+        assertThat(browser.find("#next-days-table tr[data-date='2026-12-09']").getText()).contains("Wednesday")
+                .contains("closed");
+        assertThat(browser.find("#next-days-table tr[data-date='2026-12-12']").getText()).contains("Saturday")
+                .contains("€").doesNotContain("closed");
+        assertThat(days.getText()).contains("2026-12-07: €");
+        assertThat(browser.find("#next-days-note").getText()).contains("add up to its forecast");
+        assertThat(browser.find("a[href='/exports/days?format=csv&location=QUAY']").isDisplayed()).isTrue();
+        ((JavascriptExecutor) browser.driver()).executeScript("document.getElementById('next-days').scrollIntoView()");
+        browser.screenshot("next-days");
+
         assertThat(browser.consoleErrors()).as("no script errors or CSP violations").isEmpty();
     }
 }

@@ -35,7 +35,9 @@ class ExportsApi {
             dataset: forecasts (current forecast per location with 80%/95% intervals), history (issued forecasts \
             with their data cutoff beside actuals and errors; from/to filter the issue date), accuracy (per \
             location and horizon), figures (stored figures with every revision; from/to filter the period), chain (the chain's total per \
-            currency and period ahead with its 80%/95% ranges and how they allow for locations moving together). \
+            currency and period ahead with its 80%/95% ranges and how they allow for locations moving together), days \
+            (the next 14 days by day per open location, with 80%/95% ranges and the week or month each day's \
+            forecast is part of). \
             Format by the format parameter or the Accept header (text/csv or the XLSX media type). CSV is UTF-8 \
             with RFC 4180 quoting; separator comma or semicolon. Text cells starting with = + - @ are neutralised.""")
     @GetMapping("/api/v1/exports/{dataset}")

@@ -3,6 +3,7 @@ package dev.tallyvane.forecasting.web;
 import dev.tallyvane.system.ApiClient;
 import dev.tallyvane.forecasting.ForecastSettings;
 import dev.tallyvane.forecasting.IssuedForecast;
+import dev.tallyvane.forecasting.NextDays;
 import dev.tallyvane.forecasting.RefitQueue;
 import dev.tallyvane.forecasting.RefitService;
 import dev.tallyvane.forecasting.SettingsService;
@@ -40,9 +41,13 @@ class ForecastsApi {
     private final RefitQueue queue;
     private final SettingsService settings;
     private final JsonMapper json;
+    private final NextDays nextDays;
+
+    private static final String DISCLAIMER = "Forecasts are estimates, not guarantees: the intervals show the likely range.";
 
     ForecastsApi(LocationService locations, RefitService refits, RefitQueue queue, SettingsService settings,
-            JsonMapper json) {
+            JsonMapper json, NextDays nextDays) {
+        this.nextDays = nextDays;
         this.locations = locations;
         this.refits = refits;
         this.queue = queue;
@@ -72,7 +77,7 @@ class ForecastsApi {
                 f.chosenName(), f.chosenForm(), f.reason(), f.intervalSource(), f.originCount(), f.lastPeriod(),
                 f.dataCutoff(), f.issuedAt(), f.engineVersion(), f.promisedMase(), f.points(),
                 json.readTree(f.parametersJson()), json.readTree(f.leaderboardJson()), json.readTree(f.notesJson()),
-                "Forecasts are estimates, not guarantees: the intervals show the likely range.");
+                DISCLAIMER);
     }
 
     private Location visible(String code, ApiClient client) {
@@ -87,6 +92,27 @@ class ForecastsApi {
         Location l = visible(code, client);
         return refits.current(l.getId(), measure).map(f -> view(l, f)).orElseThrow(() -> new NoForecastYet(l.getCode(),
                 measure));
+    }
+
+    /** The staffing view as the API shows it. */
+    record DaysView(String location, String measure, LocalDate from, String granularity, long forecastId,
+            Instant issuedAt, List<NextDays.Day> days, double[] weekdayShares, Double dayToDayDeviation, String note,
+            String disclaimer) {
+    }
+
+    @Operation(summary = "The next 14 days by day, for staffing", description = """
+            Each day's forecast with its 80% and 95% ranges, closed days as closed (0). A weekly or monthly \
+            forecast is split over its days by the location's weekday shape (the last 8 weeks of daily figures), \
+            so the days of a week add up to that week's forecast (periodForecast); a day's range adds the usual \
+            day-to-day swing to its period's range. Days are empty, with a note, for a location without daily \
+            figures. Forecasts are estimates, not guarantees.""")
+    @GetMapping("/locations/{code}/days")
+    DaysView days(@PathVariable String code, @RequestParam(defaultValue = "net_sales") String measure,
+            @AuthenticationPrincipal ApiClient client) {
+        Location l = visible(code, client);
+        NextDays.Plan p = nextDays.of(l, measure).orElseThrow(() -> new NoForecastYet(l.getCode(), measure));
+        return new DaysView(l.getCode(), measure, p.from(), p.granularity(), p.forecastId(), p.issuedAt(), p.days(),
+                p.weekdayShares(), p.deviation(), p.note(), DISCLAIMER);
     }
 
     @Operation(summary = "Issued forecasts between two moments, newest first")
