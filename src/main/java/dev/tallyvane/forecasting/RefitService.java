@@ -92,12 +92,18 @@ public class RefitService {
         ForecastRequest request = ForecastRequest.of(horizon).withMetric(s.metric()).withCandidates(s.candidates())
                 .withCustomWeights(s.weights()).withSeasonalPeriod(s.seasonalPeriod() == null ? 0 : s.seasonalPeriod());
         long t0 = System.nanoTime();
+        // weeks and months holding closed days or holidays: read as usual periods before fitting, and
+        // a period ahead forecast from what its days are expected to bring (OpenDays)
+        OpenDays.Shape shape = granularity == Granularity.DAY ? null : assembler.assemble(location, measure,
+                Granularity.DAY, cutoff).map(OpenDays::shape).orElse(null);
+        OpenDays.Adjusted usual = shape == null ? null : shape.adjust(series.get());
+        Series input = usual == null ? series.get() : usual.series();
         ForecastResult result;
         ForecastResult benchmark;
         try {
-            result = ForecastEngine.forecast(series.get(), request);
+            result = ForecastEngine.forecast(input, request);
             int m = s.seasonalPeriod() != null ? s.seasonalPeriod() : granularity.seasonalPeriod();
-            benchmark = ForecastEngine.forecast(series.get(), ForecastRequest.of(horizon).withSeasonalPeriod(m)
+            benchmark = ForecastEngine.forecast(input, ForecastRequest.of(horizon).withSeasonalPeriod(m)
                     .withCandidates(Set.of(m >= 2 ? SeasonalNaive.KEY : Naive.KEY)));
         } catch (IllegalArgumentException e) {
             String message = "failed: " + e.getMessage();
@@ -106,27 +112,20 @@ public class RefitService {
             return new Outcome(null, message, cutoff);
         }
         int durationMs = (int) ((System.nanoTime() - t0) / 1_000_000);
-        // a week or month ahead holding closed days is forecast from its open days (OpenDays)
-        double[] weekdays = granularity == Granularity.DAY ? null : assembler.assemble(location, measure,
-                Granularity.DAY, cutoff).map(OpenDays::weekdayWeights).orElse(null);
-        dev.tallyvane.engine.series.CalendarFacts calendar = weekdays == null
-                ? dev.tallyvane.engine.series.CalendarFacts.NONE : assembler.calendar(locationId);
         List<IssuedForecast.Point> points = new ArrayList<>();
         int reduced = 0;
+        boolean holidaysAhead = false;
         for (int i = 0; i < result.forecasts().size(); i++) {
             ForecastResult.ForecastPoint p = result.forecasts().get(i);
-            double share = OpenDays.openShare(granularity, p.period(), weekdays, calendar);
-            reduced += share < 1 ? 1 : 0;
+            double share = shape == null ? 1 : shape.share(granularity, p.period());
+            reduced += share != 1 ? 1 : 0;
+            holidaysAhead |= shape != null && shape.unusual(granularity, p.period());
             Double bench = benchmark.forecasts().get(i).forecast() * share;
             points.add(new IssuedForecast.Point(i + 1, p.period(), p.forecast() * share, p.lo80() * share,
                     p.hi80() * share, p.lo95() * share, p.hi95() * share, bench, p.closed() || share == 0));
         }
         List<String> notes = new ArrayList<>(result.notes());
-        if (reduced > 0) {
-            notes.add(reduced + " " + SettingsService.lower(granularity) + (reduced == 1 ? "" : "s") + " ahead "
-                    + (reduced == 1 ? "holds" : "hold") + " closed days: forecast from the open days, each weekday "
-                    + "weighted by its sales over the last " + OpenDays.WEEKS + " weeks.");
-        }
+        notes.addAll(calendarNotes(granularity, shape, usual, reduced, holidaysAhead));
         Double promised = result.leaderboard().stream().filter(e -> e.key().equals(result.chosenKey())
                 && e.status() == LeaderboardEntry.Status.SCORED).map(e -> e.score(Metric.MASE)).findFirst().orElse(null);
         double[] values = series.get().values();
@@ -143,21 +142,57 @@ public class RefitService {
                 Double.isFinite(scale) ? scale : null, result.history().get(result.history().size() - 1).period(), cutoff,
                 ForecastEngine.VERSION, clock.instant(), issuedBy, durationMs, points);
         long id = issued.insert(f);
-        issued.saveFit(locationId, measure, id, json.writeValueAsString(fitted(result.history())));
+        issued.saveFit(locationId, measure, id, json.writeValueAsString(fitted(result.history(), series.get(),
+                usual)));
         events.publishEvent(new ForecastIssued(id, locationId, measure, clock.instant()));
         String message = "issued #" + id + ": " + result.chosenName();
         state.fitted(key, clock.instant(), cutoff, message);
         return new Outcome(id, message, cutoff);
     }
 
-    /** The newest {@link FittedHistory#KEPT} periods as compact rows {@code [period, actual, fitted]}. */
-    private static List<Object[]> fitted(List<ForecastResult.HistoryPoint> history) {
+    /** What the calendar changed, in plain words for the forecast's notes. */
+    private static List<String> calendarNotes(Granularity g, OpenDays.Shape shape, OpenDays.Adjusted usual, int reduced,
+            boolean holidaysAhead) {
+        List<String> notes = new ArrayList<>();
+        if (shape == null) {
+            return notes;
+        }
+        String unit = SettingsService.lower(g);
+        if (usual.adjusted() > 0) {
+            notes.add(usual.adjusted() + " past " + unit + (usual.adjusted() == 1 ? "" : "s") + " held closed days or "
+                    + "holidays: read as usual " + unit + "s before the models were fitted (divided by the share of a "
+                    + "usual " + unit + "'s sales their days were expected to bring).");
+        }
+        if (reduced > 0) {
+            notes.add(reduced + " " + unit + (reduced == 1 ? "" : "s") + " ahead " + (reduced == 1 ? "holds" : "hold")
+                    + " closed days or holidays: forecast from the open days, each weekday weighted by its sales over "
+                    + "the last " + OpenDays.WEEKS + " weeks" + (shape.holidaysSeen() >= OpenDays.MIN_HOLIDAYS
+                            ? String.format(java.util.Locale.ROOT, ", a holiday as %.0f%% of a usual day (as on %d past "
+                                    + "holidays)", 100 * shape.holidayFactor(), shape.holidaysSeen()) : "") + ".");
+        }
+        if (holidaysAhead && shape.holidaysSeen() < OpenDays.MIN_HOLIDAYS) {
+            notes.add("Holidays ahead are forecast as usual days: fewer than " + OpenDays.MIN_HOLIDAYS + " past holidays "
+                    + "with figures to learn their effect from.");
+        }
+        return notes;
+    }
+
+    /**
+     * The newest {@link FittedHistory#KEPT} periods as compact rows {@code [period, actual, fitted]}: the actuals
+     * as recorded, and the fitted values of periods read as usual ones turned back into what their days brought.
+     */
+    private static List<Object[]> fitted(List<ForecastResult.HistoryPoint> history, Series recorded,
+            OpenDays.Adjusted usual) {
         List<Object[]> rows = new ArrayList<>();
         for (ForecastResult.HistoryPoint h : history.subList(Math.max(0, history.size() - FittedHistory.KEPT),
                 history.size())) {
             boolean observed = "OBSERVED".equals(h.status());
-            rows.add(new Object[] {h.period().toString(), observed && Double.isFinite(h.actual()) ? h.actual() : null,
-                    Double.isFinite(h.fitted()) ? h.fitted() : null});
+            int t = (int) recorded.granularity().periodsBetween(recorded.start(), h.period());
+            boolean inside = t >= 0 && t < recorded.length();
+            double share = usual == null || !inside ? 1 : usual.shares()[t];
+            double actual = inside ? recorded.value(t) : h.actual();
+            rows.add(new Object[] {h.period().toString(), (observed || inside) && Double.isFinite(actual) ? actual : null,
+                    Double.isFinite(h.fitted()) ? h.fitted() * share : null});
         }
         return rows;
     }

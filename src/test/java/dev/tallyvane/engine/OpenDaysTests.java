@@ -37,15 +37,75 @@ class OpenDaysTests {
         CalendarFacts closures = new CalendarFacts(Set.of(week.plusDays(3), week.plusDays(4), week.plusDays(5)),
                 Set.of());
         // open: Mon-Wed 300 of the usual 800 (Sunday is never open, so its closure costs nothing)
-        assertThat(OpenDays.openShare(Granularity.WEEK, week, w, closures)).isCloseTo(300.0 / 800, within(1e-12));
-        assertThat(OpenDays.openShare(Granularity.WEEK, week.plusWeeks(1), w, closures)).isEqualTo(1.0);
-        assertThat(OpenDays.openShare(Granularity.WEEK, week, null, closures)).isEqualTo(1.0);
+        OpenDays.Shape shape = new OpenDays.Shape(w, 1, 0, closures);
+        assertThat(shape.share(Granularity.WEEK, week)).isCloseTo(300.0 / 800, within(1e-12));
+        assertThat(shape.share(Granularity.WEEK, week.plusWeeks(1))).isEqualTo(1.0);
+        assertThat(shape.share(Granularity.DAY, week.plusDays(3))).isEqualTo(1.0);
         // a month: December 2026 has 31 days; closing three of them removes their weekday weights
         double dec = 0;
         for (LocalDate d = LocalDate.of(2026, 12, 1); d.getMonthValue() == 12; d = d.plusDays(1)) {
             dec += w[d.getDayOfWeek().getValue() - 1];
         }
-        assertThat(OpenDays.openShare(Granularity.MONTH, LocalDate.of(2026, 12, 1), w, closures))
+        assertThat(shape.share(Granularity.MONTH, LocalDate.of(2026, 12, 1)))
                 .isCloseTo((dec - 500) / dec, within(1e-12));
+    }
+
+    /**
+     * Thirty weeks of a shop selling 100 a weekday and 300 on Saturdays, whose three past holidays
+     * (all Wednesdays) sold half a usual day.
+     */
+    static Series shopWithHolidays(Set<LocalDate> extra) {
+        LocalDate start = LocalDate.of(2026, 5, 4);
+        Set<LocalDate> holidays = new java.util.HashSet<>(Set.of(start.plusWeeks(5).plusDays(2),
+                start.plusWeeks(12).plusDays(2), start.plusWeeks(20).plusDays(2)));
+        double[] y = new double[7 * 30];
+        for (int t = 0; t < y.length; t++) {
+            LocalDate d = start.plusDays(t);
+            int dow = d.getDayOfWeek().getValue();
+            y[t] = (dow == 6 ? 300 : 100) * (holidays.contains(d) ? 0.5 : 1);
+        }
+        holidays.addAll(extra);
+        return new Series(Granularity.DAY, start, y, new CalendarFacts(Set.of(), holidays));
+    }
+
+    @Test
+    void aHolidayAheadBringsWhatPastHolidaysBrought() {
+        LocalDate week = LocalDate.of(2026, 12, 21); // Monday
+        OpenDays.Shape shape = OpenDays.shape(shopWithHolidays(Set.of(week.plusDays(3))));
+        assertThat(shape.holidayFactor()).isCloseTo(0.5, within(1e-12));
+        assertThat(shape.holidaysSeen()).isEqualTo(3);
+        // a usual week brings 100 x 6 + 300 = 900; this one loses half of a Thursday's 100
+        assertThat(shape.share(Granularity.WEEK, week)).isCloseTo(850.0 / 900, within(1e-12));
+        assertThat(shape.unusual(Granularity.WEEK, week)).isTrue();
+        assertThat(shape.unusual(Granularity.WEEK, week.plusWeeks(1))).isFalse();
+    }
+
+    @Test
+    void pastWeeksHoldingHolidaysAreReadAsUsualWeeks() {
+        Series daily = shopWithHolidays(Set.of());
+        OpenDays.Shape shape = OpenDays.shape(daily);
+        double[] weekly = new double[30];
+        for (int t = 0; t < daily.length(); t++) {
+            weekly[t / 7] += daily.value(t);
+        }
+        OpenDays.Adjusted usual = shape.adjust(new Series(Granularity.WEEK, daily.start(), weekly, daily.calendar()));
+        assertThat(usual.adjusted()).isEqualTo(3);
+        // every week, the three that held a holiday too, reads as a usual week of 900
+        assertThat(usual.series().values()).containsOnly(900.0);
+        assertThat(usual.shares()[5]).isCloseTo(850.0 / 900, within(1e-12));
+    }
+
+    @Test
+    void oneHolidaySeenIsTooFewToLearnFrom() {
+        LocalDate start = LocalDate.of(2026, 5, 4);
+        double[] y = new double[7 * 10];
+        java.util.Arrays.fill(y, 100);
+        y[16] = 20;
+        Series daily = new Series(Granularity.DAY, start, y, new CalendarFacts(Set.of(), Set.of(start.plusDays(16),
+                start.plusWeeks(20))));
+        OpenDays.Shape shape = OpenDays.shape(daily);
+        assertThat(shape.holidayFactor()).isEqualTo(1.0);
+        assertThat(shape.holidaysSeen()).isEqualTo(1);
+        assertThat(shape.share(Granularity.WEEK, start.plusWeeks(20))).isEqualTo(1.0);
     }
 }

@@ -107,6 +107,66 @@ class ClosedDaysAheadIntegrationTests {
                 assertThat(a.get(other).forecast()).as(other.toString()).isCloseTo(b.get(other).forecast(), within(1e-6));
             }
         }
-        assertThat(after.notesJson()).contains("1 week ahead holds closed days: forecast from the open days");
+        assertThat(after.notesJson()).contains("1 week ahead holds closed days or holidays: forecast from the open days");
+    }
+
+    /**
+     * Two past Wednesday holidays sold half a usual Wednesday: the weeks that held them are read as
+     * usual weeks before fitting, and a holiday entered for a Wednesday ahead takes half of that
+     * Wednesday's usual share off its week; the forecast's notes say both.
+     */
+    @Test
+    void aHolidayAheadTakesTheEffectPastHolidaysHad() {
+        Users.ensure(users, "olive", Role.OWNER);
+        String code = "H" + UUID.randomUUID().toString().substring(0, 8).toUpperCase();
+        Location l = locations.create(new LocationDetails(code, "Mill Lane Café", "Europe/Berlin", "EUR", null, null));
+        List<LocalDate> pastHolidays = List.of(LocalDate.of(2026, 10, 14), LocalDate.of(2026, 11, 11));
+        List<FigureInput> days = new ArrayList<>();
+        LocalDate first = LocalDate.of(2026, 10, 5);
+        for (int i = 0; i < 56; i++) {
+            LocalDate d = first.plusDays(i);
+            int dow = d.getDayOfWeek().getValue();
+            double amount = ((dow == 6 ? 400 : dow == 7 ? 300 : 200) + (i % 3) * 5) * (pastHolidays.contains(d) ? 0.5 : 1);
+            days.add(new FigureInput(i, code, FigureRules.DEFAULT_MEASURE, Granularity.DAY, d,
+                    BigDecimal.valueOf(amount)));
+        }
+        settings.saveCalendar(l.getId(), List.of(), pastHolidays);
+        intake.record(days, Submitter.api("token:till", null), "item");
+        org.awaitility.Awaitility.await().atMost(java.time.Duration.ofSeconds(30))
+                .until(() -> queue.status(l.getId()).idle() && refits.current(l.getId(), FigureRules.DEFAULT_MEASURE)
+                        .isPresent());
+        assertThat(refits.refit(l.getId(), FigureRules.DEFAULT_MEASURE, "test").issuedId()).isNotNull();
+        IssuedForecast before = refits.current(l.getId(), FigureRules.DEFAULT_MEASURE).orElseThrow();
+        assertThat(before.notesJson()).contains("2 past weeks held closed days or holidays: read as usual weeks");
+
+        LocalDate week = LocalDate.of(2026, 12, 14);
+        List<LocalDate> holidays = new ArrayList<>(pastHolidays);
+        holidays.add(week.plusDays(2));
+        settings.saveCalendar(l.getId(), List.of(), holidays);
+        assertThat(refits.refit(l.getId(), FigureRules.DEFAULT_MEASURE, "test").issuedId()).isNotNull();
+        IssuedForecast after = refits.current(l.getId(), FigureRules.DEFAULT_MEASURE).orElseThrow();
+
+        // the usual weekday levels (holidays left out), worked out here from the figures
+        double[] w = new double[7];
+        int[] n = new int[7];
+        for (FigureInput f : days) {
+            if (!pastHolidays.contains(f.periodStart())) {
+                int d = f.periodStart().getDayOfWeek().getValue() - 1;
+                w[d] += f.amount().doubleValue();
+                n[d]++;
+            }
+        }
+        double all = 0;
+        for (int d = 0; d < 7; d++) {
+            w[d] /= n[d];
+            all += w[d];
+        }
+        double share = (all - 0.5 * w[2]) / all; // half a Wednesday (up to the few euros of noise around each)
+        Map<LocalDate, IssuedForecast.Point> b = byPeriod(before);
+        Map<LocalDate, IssuedForecast.Point> a = byPeriod(after);
+        assertThat(a.get(week).forecast() / b.get(week).forecast()).isCloseTo(share, within(0.003));
+        assertThat(a.get(week.plusWeeks(1)).forecast()).isCloseTo(b.get(week.plusWeeks(1)).forecast(), within(1e-6));
+        assertThat(after.notesJson()).contains("1 week ahead holds closed days or holidays")
+                .containsPattern("a holiday as (49|50|51)% of a usual day \\(as on 2 past holidays\\)");
     }
 }

@@ -1,6 +1,5 @@
 package dev.tallyvane.engine.evaluation;
 
-import dev.tallyvane.engine.series.CalendarFacts;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.engine.series.OpenDays;
 import dev.tallyvane.engine.series.Series;
@@ -15,11 +14,12 @@ import java.util.Optional;
  * days always adds up to the forecast the stock and cash plans are made from.
  *
  * <p><b>Points (top-down split).</b> A day d of period P gets the period's forecast F times its share
- * <pre>  s(d) = w(weekday d) / Σ_{u ∈ P, u open} w(weekday u)      (0 for a closed day)</pre>
+ * <pre>  s(d) = c(d) w(weekday d) / Σ_{u ∈ P} c(u) w(weekday u)</pre>
  * with the weekday weights w of {@link OpenDays#weekdayWeights} (mean sales of each weekday over the
- * last {@value OpenDays#WEEKS} weeks of open days). So Σ_{d ∈ P} ŷ(d) = F exactly: the days of a week
+ * last {@value OpenDays#WEEKS} weeks of open days) and c the day's calendar factor of
+ * {@link OpenDays.Shape#dayWeight} (0 closed, the measured holiday factor on a holiday, else 1). So Σ_{d ∈ P} ŷ(d) = F exactly: the days of a week
  * sum to the week's forecast. The period's forecast is already reduced for its closed days
- * ({@link OpenDays#openShare}), and the open days share it. Splitting the period's forecast, rather
+ * ({@link OpenDays.Shape#share}), and the open days share it. Splitting the period's forecast, rather
  * than adding up separate daily forecasts, keeps the two views from ever disagreeing, and the level
  * comes from the model that was chosen and scored at the planning granularity, on totals that are far
  * less noisy than single days (the proportional top-down method of forecast reconciliation: Hyndman
@@ -109,11 +109,12 @@ public final class DailySplit {
      *         {@value #MIN_DAYS} open days in complete weeks), or not daily
      */
     public static Optional<Split> of(Series daily, List<Period> periods, LocalDate from, int count) {
-        double[] weights = OpenDays.weekdayWeights(daily);
-        if (weights == null) {
+        OpenDays.Shape shape = OpenDays.shape(daily);
+        if (shape == null) {
             return Optional.empty();
         }
-        double[][] v = relativeVariances(daily, weights);
+        double[] weights = shape.weekdays();
+        double[][] v = relativeVariances(daily, shape);
         if (v == null) {
             return Optional.empty();
         }
@@ -121,7 +122,6 @@ public final class DailySplit {
         for (int t = 0; t < daily.length(); t++) {
             neverNegative &= !(daily.value(t) < 0);
         }
-        CalendarFacts calendar = daily.calendar();
         List<Day> days = new ArrayList<>();
         for (LocalDate d = from; d.isBefore(from.plusDays(count)); d = d.plusDays(1)) {
             Period p = null;
@@ -133,7 +133,7 @@ public final class DailySplit {
             if (p == null) {
                 break;
             }
-            days.add(day(d, p, weights, v[0][d.getDayOfWeek().getValue() - 1], calendar, neverNegative));
+            days.add(day(d, p, shape, v[0][d.getDayOfWeek().getValue() - 1], neverNegative));
         }
         double total = 0;
         for (double w : weights) {
@@ -146,16 +146,15 @@ public final class DailySplit {
         return Optional.of(new Split(List.copyOf(days), shares, Math.sqrt(v[1][0]), (int) v[1][1]));
     }
 
-    private static Day day(LocalDate d, Period p, double[] weights, double v, CalendarFacts calendar,
-            boolean neverNegative) {
-        if (p.closed() || calendar.isClosed(d)) {
+    private static Day day(LocalDate d, Period p, OpenDays.Shape shape, double v, boolean neverNegative) {
+        if (p.closed() || shape.calendar().isClosed(d)) {
             return new Day(d, p.start(), 0, 0, 0, 0, 0, 0, true);
         }
         double open = 0;
         for (LocalDate u = p.start(); !u.isAfter(p.granularity().periodEnd(p.start())); u = u.plusDays(1)) {
-            open += calendar.isClosed(u) ? 0 : weights[u.getDayOfWeek().getValue() - 1];
+            open += shape.dayWeight(u);
         }
-        double s = open > 0 ? weights[d.getDayOfWeek().getValue() - 1] / open : 0;
+        double s = open > 0 ? shape.dayWeight(d) / open : 0;
         double f = s * p.forecast();
         double noise80 = ChainTotal.Z80 * f * Math.sqrt(v);
         double noise95 = ChainTotal.Z95 * f * Math.sqrt(v);
@@ -171,7 +170,8 @@ public final class DailySplit {
      * {@code [0]}: v_d by weekday (Monday first), shrunk toward the pooled v; {@code [1]}: the pooled v and the
      * number of days measured; null with fewer than {@link #MIN_DAYS} days.
      */
-    private static double[][] relativeVariances(Series daily, double[] weights) {
+    private static double[][] relativeVariances(Series daily, OpenDays.Shape shape) {
+        double[] weights = shape.weekdays();
         double[] sum = new double[7];
         int[] count = new int[7];
         int n = daily.length();
@@ -189,7 +189,7 @@ public final class DailySplit {
                 }
                 complete &= Double.isFinite(daily.value(t));
                 total += daily.value(t);
-                shareTotal += weights[daily.periodAt(t).getDayOfWeek().getValue() - 1];
+                shareTotal += shape.dayWeight(daily.periodAt(t));
             }
             if (!complete || !(total > 0) || !(shareTotal > 0)) {
                 continue;
@@ -199,7 +199,7 @@ public final class DailySplit {
                 if (daily.isClosed(t) || weights[wd] <= 0) {
                     continue;
                 }
-                double e = daily.value(t) / (weights[wd] / shareTotal * total) - 1;
+                double e = daily.value(t) / (shape.dayWeight(daily.periodAt(t)) / shareTotal * total) - 1;
                 sum[wd] += e * e;
                 count[wd]++;
             }
