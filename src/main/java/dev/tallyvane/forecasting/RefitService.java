@@ -8,6 +8,7 @@ import dev.tallyvane.engine.evaluation.LeaderboardEntry;
 import dev.tallyvane.engine.evaluation.Metric;
 import dev.tallyvane.engine.model.Naive;
 import dev.tallyvane.engine.model.SeasonalNaive;
+import dev.tallyvane.engine.series.DayEffect;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.engine.series.OpenDays;
 import dev.tallyvane.engine.series.Series;
@@ -114,18 +115,20 @@ public class RefitService {
         int durationMs = (int) ((System.nanoTime() - t0) / 1_000_000);
         List<IssuedForecast.Point> points = new ArrayList<>();
         int reduced = 0;
-        boolean holidaysAhead = false;
+        java.util.Set<DayEffect> aheadEffects = new java.util.LinkedHashSet<>();
         for (int i = 0; i < result.forecasts().size(); i++) {
             ForecastResult.ForecastPoint p = result.forecasts().get(i);
             double share = shape == null ? 1 : shape.share(granularity, p.period());
             reduced += share != 1 ? 1 : 0;
-            holidaysAhead |= shape != null && shape.unusual(granularity, p.period());
+            if (shape != null) {
+                aheadEffects.addAll(shape.effectsIn(granularity, p.period()));
+            }
             Double bench = benchmark.forecasts().get(i).forecast() * share;
             points.add(new IssuedForecast.Point(i + 1, p.period(), p.forecast() * share, p.lo80() * share,
                     p.hi80() * share, p.lo95() * share, p.hi95() * share, bench, p.closed() || share == 0));
         }
         List<String> notes = new ArrayList<>(result.notes());
-        notes.addAll(calendarNotes(granularity, shape, usual, reduced, holidaysAhead));
+        notes.addAll(calendarNotes(granularity, shape, usual, reduced, aheadEffects));
         Double promised = result.leaderboard().stream().filter(e -> e.key().equals(result.chosenKey())
                 && e.status() == LeaderboardEntry.Status.SCORED).map(e -> e.score(Metric.MASE)).findFirst().orElse(null);
         double[] values = series.get().values();
@@ -152,28 +155,23 @@ public class RefitService {
 
     /** What the calendar changed, in plain words for the forecast's notes. */
     private static List<String> calendarNotes(Granularity g, OpenDays.Shape shape, OpenDays.Adjusted usual, int reduced,
-            boolean holidaysAhead) {
+            java.util.Collection<DayEffect> aheadEffects) {
         List<String> notes = new ArrayList<>();
         if (shape == null) {
             return notes;
         }
         String unit = SettingsService.lower(g);
         if (usual.adjusted() > 0) {
-            notes.add(usual.adjusted() + " past " + unit + (usual.adjusted() == 1 ? "" : "s") + " held closed days or "
-                    + "holidays: read as usual " + unit + "s before the models were fitted (divided by the share of a "
+            notes.add(usual.adjusted() + " past " + unit + (usual.adjusted() == 1 ? "" : "s") + " held closed days, holidays or "
+                    + "events: read as usual " + unit + "s before the models were fitted (divided by the share of a "
                     + "usual " + unit + "'s sales their days were expected to bring).");
         }
         if (reduced > 0) {
             notes.add(reduced + " " + unit + (reduced == 1 ? "" : "s") + " ahead " + (reduced == 1 ? "holds" : "hold")
-                    + " closed days or holidays: forecast from the open days, each weekday weighted by its sales over "
-                    + "the last " + OpenDays.WEEKS + " weeks" + (shape.holidaysSeen() >= OpenDays.MIN_HOLIDAYS
-                            ? String.format(java.util.Locale.ROOT, ", a holiday as %.0f%% of a usual day (as on %d past "
-                                    + "holidays)", 100 * shape.holidayFactor(), shape.holidaysSeen()) : "") + ".");
+                    + " closed days, holidays or events: forecast from what their days are expected to bring, each "
+                    + "weekday weighted by its sales over the last " + OpenDays.WEEKS + " weeks.");
         }
-        if (holidaysAhead && shape.holidaysSeen() < OpenDays.MIN_HOLIDAYS) {
-            notes.add("Holidays ahead are forecast as usual days: fewer than " + OpenDays.MIN_HOLIDAYS + " past holidays "
-                    + "with figures to learn their effect from.");
-        }
+        aheadEffects.forEach(e -> notes.add(e.describe()));
         return notes;
     }
 

@@ -4,6 +4,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
 import dev.tallyvane.engine.series.CalendarFacts;
+import dev.tallyvane.engine.series.DayEffect;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.engine.series.OpenDays;
 import dev.tallyvane.engine.series.Series;
@@ -37,7 +38,7 @@ class OpenDaysTests {
         CalendarFacts closures = new CalendarFacts(Set.of(week.plusDays(3), week.plusDays(4), week.plusDays(5)),
                 Set.of());
         // open: Mon-Wed 300 of the usual 800 (Sunday is never open, so its closure costs nothing)
-        OpenDays.Shape shape = new OpenDays.Shape(w, 1, 0, closures);
+        OpenDays.Shape shape = new OpenDays.Shape(w, java.util.List.of(), closures);
         assertThat(shape.share(Granularity.WEEK, week)).isCloseTo(300.0 / 800, within(1e-12));
         assertThat(shape.share(Granularity.WEEK, week.plusWeeks(1))).isEqualTo(1.0);
         assertThat(shape.share(Granularity.DAY, week.plusDays(3))).isEqualTo(1.0);
@@ -72,12 +73,13 @@ class OpenDaysTests {
     void aHolidayAheadBringsWhatPastHolidaysBrought() {
         LocalDate week = LocalDate.of(2026, 12, 21); // Monday
         OpenDays.Shape shape = OpenDays.shape(shopWithHolidays(Set.of(week.plusDays(3))));
-        assertThat(shape.holidayFactor()).isCloseTo(0.5, within(1e-12));
-        assertThat(shape.holidaysSeen()).isEqualTo(3);
+        assertThat(shape.holidays().orElseThrow().factor()).isCloseTo(0.5, within(1e-12));
+        assertThat(shape.holidays().orElseThrow().seen()).isEqualTo(3);
+        assertThat(shape.holidays().orElseThrow().source()).isEqualTo(DayEffect.Source.ESTIMATED);
         // a usual week brings 100 x 6 + 300 = 900; this one loses half of a Thursday's 100
         assertThat(shape.share(Granularity.WEEK, week)).isCloseTo(850.0 / 900, within(1e-12));
-        assertThat(shape.unusual(Granularity.WEEK, week)).isTrue();
-        assertThat(shape.unusual(Granularity.WEEK, week.plusWeeks(1))).isFalse();
+        assertThat(shape.effectsIn(Granularity.WEEK, week)).hasSize(1);
+        assertThat(shape.effectsIn(Granularity.WEEK, week.plusWeeks(1))).isEmpty();
     }
 
     @Test
@@ -104,8 +106,9 @@ class OpenDaysTests {
         Series daily = new Series(Granularity.DAY, start, y, new CalendarFacts(Set.of(), Set.of(start.plusDays(16),
                 start.plusWeeks(20))));
         OpenDays.Shape shape = OpenDays.shape(daily);
-        assertThat(shape.holidayFactor()).isEqualTo(1.0);
-        assertThat(shape.holidaysSeen()).isEqualTo(1);
+        assertThat(shape.holidays().orElseThrow().factor()).isEqualTo(1.0);
+        assertThat(shape.holidays().orElseThrow().seen()).isEqualTo(1);
+        assertThat(shape.holidays().orElseThrow().describe()).contains("fewer than 2 past days");
         assertThat(shape.share(Granularity.WEEK, start.plusWeeks(20))).isEqualTo(1.0);
     }
 }

@@ -107,7 +107,7 @@ class ClosedDaysAheadIntegrationTests {
                 assertThat(a.get(other).forecast()).as(other.toString()).isCloseTo(b.get(other).forecast(), within(1e-6));
             }
         }
-        assertThat(after.notesJson()).contains("1 week ahead holds closed days or holidays: forecast from the open days");
+        assertThat(after.notesJson()).contains("1 week ahead holds closed days, holidays or events: forecast from what their days are expected to bring");
     }
 
     /**
@@ -137,7 +137,7 @@ class ClosedDaysAheadIntegrationTests {
                         .isPresent());
         assertThat(refits.refit(l.getId(), FigureRules.DEFAULT_MEASURE, "test").issuedId()).isNotNull();
         IssuedForecast before = refits.current(l.getId(), FigureRules.DEFAULT_MEASURE).orElseThrow();
-        assertThat(before.notesJson()).contains("2 past weeks held closed days or holidays: read as usual weeks");
+        assertThat(before.notesJson()).contains("2 past weeks held closed days, holidays or events: read as usual weeks");
 
         LocalDate week = LocalDate.of(2026, 12, 14);
         List<LocalDate> holidays = new ArrayList<>(pastHolidays);
@@ -166,7 +166,7 @@ class ClosedDaysAheadIntegrationTests {
         Map<LocalDate, IssuedForecast.Point> a = byPeriod(after);
         assertThat(a.get(week).forecast() / b.get(week).forecast()).isCloseTo(share, within(0.003));
         assertThat(a.get(week.plusWeeks(1)).forecast()).isCloseTo(b.get(week.plusWeeks(1)).forecast(), within(1e-6));
-        assertThat(after.notesJson()).contains("1 week ahead holds closed days or holidays")
-                .containsPattern("a holiday as (49|50|51)% of a usual day \\(as on 2 past holidays\\)");
+        assertThat(after.notesJson()).contains("1 week ahead holds closed days, holidays or events")
+                .containsPattern("Holidays: -(49|50|51)% on a usual day, measured on 2 past days");
     }
 }

@@ -1,6 +1,9 @@
 package dev.tallyvane.engine.series;
 
 import java.time.LocalDate;
+import java.util.ArrayList;
+import java.util.HashSet;
+import java.util.List;
 import java.util.Set;
 
 /**
@@ -9,9 +12,11 @@ import java.util.Set;
  *
  * <p>Each weekday gets a weight: its mean sales over the last weeks of open days,
  * <pre>  w(d) = mean{ y_t : t in the last {@code weeks} weeks, weekday(t) = d, t open }</pre>
- * (0 for a weekday never open there). A day's expected weight is c(t) · w(weekday t) with c = 0 on
- * a closed day, c = h on a holiday the shop is open, and 1 otherwise, where h is the holiday factor
- * measured on past holidays ({@link #holidayEffect}). The calendar share of a period P is
+ * (0 for a weekday never open there; holidays and event days are left out, being unusual). A day's
+ * expected weight is c(t) · w(weekday t) with c = 0 on a closed day, and otherwise the product of the
+ * factors of the effects whose day it is ({@link DayEffect}: the location's holidays, measured on past
+ * holidays, and each event, stated by the owner or measured on its past days), 1 on a usual day. The
+ * calendar share of a period P is
  * <pre>  s(P) = Σ_{t ∈ P} c(t) w(weekday t) / Σ_{t ∈ P} w(weekday t)</pre>
  * A past period's total is divided by s(P) before the models are fitted (it is read as the usual
  * period it would have been), and a period ahead has its forecast and interval bounds multiplied by
@@ -30,10 +35,14 @@ public final class OpenDays {
 
     /**
      * Weekday weights (index 0 = Monday) from the usual days (open, not holidays) of the last
-     * {@link #WEEKS} weeks of a daily series, or
-     * null when the series is not daily or has no open day in that window.
+     * {@link #WEEKS} weeks of a daily series, or null when the series is not daily or has no open day
+     * in that window.
      */
     public static double[] weekdayWeights(Series daily) {
+        return weekdayWeights(daily, daily.calendar().holidays());
+    }
+
+    private static double[] weekdayWeights(Series daily, Set<LocalDate> unusual) {
         if (daily.granularity() != Granularity.DAY) {
             return null;
         }
@@ -42,7 +51,7 @@ public final class OpenDays {
         int n = daily.length();
         for (int t = Math.max(0, n - 7 * WEEKS); t < n; t++) {
             double y = daily.value(t);
-            if (!daily.isClosed(t) && Double.isFinite(y) && !daily.calendar().holidays().contains(daily.periodAt(t))) {
+            if (!daily.isClosed(t) && Double.isFinite(y) && !unusual.contains(daily.periodAt(t))) {
                 int d = daily.periodAt(t).getDayOfWeek().getValue() - 1;
                 sum[d] += y;
                 count[d]++;
@@ -57,59 +66,51 @@ public final class OpenDays {
         return total > 0 ? w : null;
     }
 
-    /**
-     * The location's calendar shape: its weekday weights, its holiday effect and its calendar, from
-     * its daily figures; null when the series is not daily or has no open day in the last weeks.
-     */
+    /** The location's calendar shape without events; see {@link #shape(Series, List)}. */
     public static Shape shape(Series daily) {
-        double[] w = weekdayWeights(daily);
+        return shape(daily, List.of());
+    }
+
+    /**
+     * The location's calendar shape from its daily figures: its weekday weights (from usual days), the
+     * effect of its holidays (estimated on past holidays) and of each event (stated, or estimated on its
+     * past days), and its calendar; null when the series is not daily or has no open day in the last weeks.
+     */
+    public static Shape shape(Series daily, List<Event> events) {
+        Set<LocalDate> unusual = new HashSet<>(daily.calendar().holidays());
+        for (Event e : events) {
+            unusual.addAll(e.days());
+        }
+        double[] w = weekdayWeights(daily, unusual);
         if (w == null) {
             return null;
         }
-        double[] effect = holidayEffect(daily);
-        return new Shape(w, effect[0], (int) effect[1], daily.calendar());
+        List<DayEffect> effects = new ArrayList<>();
+        if (!daily.calendar().holidays().isEmpty()) {
+            effects.add(DayEffect.estimate(HOLIDAYS, daily.calendar().holidays(), daily, unusual));
+        }
+        for (Event e : events) {
+            effects.add(e.statedPercent() != null ? DayEffect.stated(e.name(), e.days(), e.statedPercent())
+                    : DayEffect.estimate(e.name(), e.days(), daily, unusual));
+        }
+        return new Shape(w, effects, daily.calendar());
     }
+
+    /** The name of the holidays' effect. */
+    public static final String HOLIDAYS = "holidays";
 
     /**
-     * The holiday factor h and the past holidays it was measured on: the median over past open
-     * holidays t of y_t / ȳ_t, where ȳ_t is the mean of the same weekday's usual days (open, not
-     * holidays) within {@value #HOLIDAY_WEEKS} weeks either side; 1 with fewer than
-     * {@value #MIN_HOLIDAYS} holidays seen, and kept within [0.05, 5]. The median keeps one odd holiday
-     * from setting the factor for all (common practice).
+     * An owner's event.
+     *
+     * @param days          its days, past and ahead
+     * @param statedPercent the owner's stated uplift (+) or drop (−) in percent, or null to estimate it from history
      */
-    static double[] holidayEffect(Series daily) {
-        java.util.List<Double> ratios = new java.util.ArrayList<>();
-        Set<LocalDate> holidays = daily.calendar().holidays();
-        for (int t = 0; t < daily.length(); t++) {
-            LocalDate d = daily.periodAt(t);
-            if (!holidays.contains(d) || daily.isClosed(t) || !Double.isFinite(daily.value(t))) {
-                continue;
-            }
-            double sum = 0;
-            int n = 0;
-            for (int k = -HOLIDAY_WEEKS; k <= HOLIDAY_WEEKS; k++) {
-                int u = t + 7 * k;
-                if (k != 0 && u >= 0 && u < daily.length() && !daily.isClosed(u) && Double.isFinite(daily.value(u))
-                        && !holidays.contains(daily.periodAt(u))) {
-                    sum += daily.value(u);
-                    n++;
-                }
-            }
-            if (n > 0 && sum > 0) {
-                ratios.add(daily.value(t) / (sum / n));
-            }
-        }
-        if (ratios.size() < MIN_HOLIDAYS) {
-            return new double[] {1, ratios.size()};
-        }
-        java.util.Collections.sort(ratios);
-        int m = ratios.size();
-        double median = m % 2 == 1 ? ratios.get(m / 2) : (ratios.get(m / 2 - 1) + ratios.get(m / 2)) / 2;
-        return new double[] {Math.max(0.05, Math.min(5, median)), m};
-    }
+    public record Event(String name, Set<LocalDate> days, Double statedPercent) {
 
-    /** Weeks either side of a holiday its weekday's usual level is read from. */
-    public static final int HOLIDAY_WEEKS = 4;
+        public Event {
+            days = Set.copyOf(days);
+        }
+    }
 
     /** The least calendar share of a past period that is still read as a usual period. */
     public static final double MIN_SHARE = 0.25;
@@ -123,26 +124,34 @@ public final class OpenDays {
     public record Adjusted(Series series, double[] shares, int adjusted) {
     }
 
-    /** Past open holidays needed before their effect is used. */
-    public static final int MIN_HOLIDAYS = 2;
-
     /**
      * A location's calendar shape.
      *
-     * @param weekdays      weekday weights w(d), Monday first
-     * @param holidayFactor h: a holiday's sales relative to a usual day of its weekday (1 when too few were seen)
-     * @param holidaysSeen  the past open holidays h was measured on
-     * @param calendar      closed days and holidays, past and ahead
+     * @param weekdays weekday weights w(d), Monday first
+     * @param effects  the holidays' and events' effects (a day in several takes the product of their factors)
+     * @param calendar closed days and holidays, past and ahead
      */
-    public record Shape(double[] weekdays, double holidayFactor, int holidaysSeen, CalendarFacts calendar) {
+    public record Shape(double[] weekdays, List<DayEffect> effects, CalendarFacts calendar) {
 
-        /** A day's expected weight: 0 closed, w(weekday) · h on a holiday, w(weekday) otherwise. */
+        public Shape {
+            effects = List.copyOf(effects);
+        }
+
+        /** The holidays' effect, if the calendar has holidays. */
+        public java.util.Optional<DayEffect> holidays() {
+            return effects.stream().filter(e -> e.name().equals(HOLIDAYS)).findFirst();
+        }
+
+        /** A day's expected weight: 0 closed, else w(weekday) times the factor of each effect it is a day of. */
         public double dayWeight(LocalDate day) {
             if (calendar.isClosed(day)) {
                 return 0;
             }
             double w = weekdays[day.getDayOfWeek().getValue() - 1];
-            return calendar.holidays().contains(day) ? w * holidayFactor : w;
+            for (DayEffect e : effects) {
+                w *= e.days().contains(day) ? e.factor() : 1;
+            }
+            return w;
         }
 
         /**
@@ -182,14 +191,18 @@ public final class OpenDays {
                     series.calendar()), shares, adjusted);
         }
 
-        /** True when the period holds a closed day or a holiday that is open. */
-        public boolean unusual(Granularity granularity, LocalDate start) {
-            for (LocalDate d = start; !d.isAfter(granularity.periodEnd(start)); d = d.plusDays(1)) {
-                if (calendar.isClosed(d) || calendar.holidays().contains(d)) {
-                    return true;
+        /** The effects with a day in the period. */
+        public List<DayEffect> effectsIn(Granularity granularity, LocalDate start) {
+            List<DayEffect> in = new ArrayList<>();
+            for (DayEffect e : effects) {
+                for (LocalDate d = start; !d.isAfter(granularity.periodEnd(start)); d = d.plusDays(1)) {
+                    if (e.days().contains(d)) {
+                        in.add(e);
+                        break;
+                    }
                 }
             }
-            return false;
+            return in;
         }
     }
 }
