@@ -28,9 +28,12 @@ public class LocationPage {
     private final ChainTotals chainTotals;
     private final LocationService locations;
     private final NextDays nextDays;
+    private final EventScores eventScores;
 
     LocationPage(RefitService refits, FlagService accuracy, FigureFacts figures, LocationCharts charts,
-            JsonMapper json, ChainTotals chainTotals, LocationService locations, NextDays nextDays) {
+            JsonMapper json, ChainTotals chainTotals, LocationService locations, NextDays nextDays,
+            EventScores eventScores) {
+        this.eventScores = eventScores;
         this.nextDays = nextDays;
         this.chainTotals = chainTotals;
         this.locations = locations;
@@ -52,10 +55,12 @@ public class LocationPage {
      * @param chain       the chain's total (its active locations, this currency) for the forecast's first
      *                    period, as the overview and the e-mail show it, or null
      * @param days        the next days by day (the staffing view), or null without a forecast
+     * @param events      the location's events with their value added so far
      */
     public record Content(IssuedForecast forecast, Leaderboard leaderboard, String lastOutcome,
             LocationCharts.ForecastChart chart, LocationCharts.AccuracyChart accuracy, List<DriftFlag> flags,
-            List<FigureFacts.Recent> recent, ChainTotals.Total chain, NextDays.Plan days) {
+            List<FigureFacts.Recent> recent, ChainTotals.Total chain, NextDays.Plan days,
+            EventScores.Report events) {
 
         /** This location's first-period forecast as a share of the chain's, in percent, or NaN. */
         public double chainSharePct() {
@@ -75,6 +80,6 @@ public class LocationPage {
                 f.filter(x -> l.isActive() && !x.points().isEmpty()).flatMap(x -> chainTotals.of(measure,
                         locations.all().stream().filter(Location::isActive).toList(), l.getCurrency(), x.granularity(),
                         x.points().get(0).period())).orElse(null),
-                l.isActive() ? nextDays.of(l, measure).orElse(null) : null);
+                l.isActive() ? nextDays.of(l, measure).orElse(null) : null, eventScores.of(l, measure));
     }
 }

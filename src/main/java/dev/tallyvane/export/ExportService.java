@@ -187,7 +187,7 @@ public class ExportService {
                 Column.date("date"), Column.text("weekday"), Column.text("closed"), Column.amount("forecast"),
                 Column.amount("lo80"), Column.amount("hi80"), Column.amount("lo95"), Column.amount("hi95"),
                 Column.text("planning_granularity"), Column.date("period"), Column.amount("period_forecast"),
-                Column.integer("forecast_id"), Column.timestamp("issued_at")));
+                Column.text("events"), Column.integer("forecast_id"), Column.timestamp("issued_at")));
         for (Location l : covered(r)) {
             if (!l.isActive()) {
                 continue;
@@ -197,7 +197,7 @@ public class ExportService {
                     r.measure(), d.date(), lower(d.weekday().name()), yesNo(d.closed()), new Money(d.forecast(), cur),
                     new Money(d.lo80(), cur), new Money(d.hi80(), cur), new Money(d.lo95(), cur),
                     new Money(d.hi95(), cur), p.granularity(), d.periodStart(), new Money(d.periodForecast(), cur),
-                    p.forecastId(), p.issuedAt())));
+                    String.join("; ", d.events()), p.forecastId(), p.issuedAt())));
         }
     }
 

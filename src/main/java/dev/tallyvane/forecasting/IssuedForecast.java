@@ -18,8 +18,13 @@ public record IssuedForecast(long id, long locationId, String measure, String gr
         LocalDate lastPeriod, Instant dataCutoff, String engineVersion, Instant issuedAt, String issuedBy,
         int durationMs, List<Point> points) {
 
-    /** One period ahead: forecast, 80% and 95% intervals, and the seasonal-naive benchmark. */
+    /**
+     * One period ahead: forecast, 80% and 95% intervals, and the seasonal-naive benchmark.
+     *
+     * @param usualForecast what it would have been without the holidays' and events' effects (closed days still
+     *                      taken out), when they changed it; null otherwise
+     */
     public record Point(int step, LocalDate period, double forecast, double lo80, double hi80, double lo95,
-            double hi95, Double benchmark, boolean closed) {
+            double hi95, Double benchmark, boolean closed, Double usualForecast) {
     }
 }

@@ -29,15 +29,17 @@ public class IssuedForecasts {
      * @param benchmark the seasonal-naive forecast of the same period (for the value added), or null
      * @param closed    the period was a closed day (forecast 0, never scored)
      * @param maseScale the in-sample MASE scale of the data the forecast was made from, or null
+     * @param usualForecast the forecast without the holidays' and events' effects, when they changed it, or null
      */
     public record IssuedPoint(long issuedId, long locationId, String measure, String granularity, Instant issuedAt,
             Instant dataCutoff, LocalDate lastPeriod, String model, int step, LocalDate period, double forecast, double lo80,
-            double hi80, double lo95, double hi95, Double benchmark, boolean closed, Double maseScale) {
+            double hi80, double lo95, double hi95, Double benchmark, boolean closed, Double maseScale,
+            Double usualForecast) {
     }
 
     private static final String POINT = "select f.id, f.location_id, f.measure, f.granularity, f.issued_at, f.data_cutoff, "
             + "f.last_period, f.chosen_name, p.step, p.period_start, p.forecast, p.lo80, p.hi80, p.lo95, p.hi95, "
-            + "p.benchmark, p.closed, f.mase_scale from issued_forecast f join issued_forecast_point p on p.issued_id = f.id ";
+            + "p.benchmark, p.closed, f.mase_scale, p.usual_forecast from issued_forecast f join issued_forecast_point p on p.issued_id = f.id ";
 
     private final JdbcTemplate jdbc;
     private final JdbcTemplate streaming;
@@ -53,7 +55,7 @@ public class IssuedForecasts {
                 rs.getTimestamp(5).toInstant(), rs.getTimestamp(6).toInstant(), rs.getObject(7, LocalDate.class),
                 rs.getString(8), rs.getInt(9), rs.getObject(10, LocalDate.class), rs.getDouble(11), rs.getDouble(12),
                 rs.getDouble(13), rs.getDouble(14), rs.getDouble(15), rs.getObject(16, Double.class), rs.getBoolean(17),
-                rs.getObject(18, Double.class));
+                rs.getObject(18, Double.class), rs.getObject(19, Double.class));
     }
 
     /** The points of each measure's newest forecast of a location, by measure and step. */
@@ -105,6 +107,13 @@ public class IssuedForecasts {
     public List<IssuedPoint> pointsAtStep(long locationId, String measure, int step) {
         return jdbc.query(POINT + "where f.location_id = ? and f.measure = ? and p.step = ?", (rs, i) -> point(rs),
                 locationId, measure, step);
+    }
+
+    /** Every point whose forecast holidays or events changed (a usual forecast is kept beside it), in issue order. */
+    @Transactional(readOnly = true)
+    public List<IssuedPoint> changedByEffects(long locationId, String measure) {
+        return jdbc.query(POINT + "where f.location_id = ? and f.measure = ? and p.usual_forecast is not null "
+                + "order by f.id, p.step", (rs, i) -> point(rs), locationId, measure);
     }
 
     /** The granularities a series has been forecast at. */

@@ -32,8 +32,10 @@ public class NextDays {
     private final IssuedForecastStore issued;
     private final SeriesAssembler assembler;
     private final Clock clock;
+    private final LocationEvents events;
 
-    NextDays(IssuedForecastStore issued, SeriesAssembler assembler, Clock clock) {
+    NextDays(IssuedForecastStore issued, SeriesAssembler assembler, Clock clock, LocationEvents events) {
+        this.events = events;
         this.issued = issued;
         this.assembler = assembler;
         this.clock = clock;
@@ -44,9 +46,10 @@ public class NextDays {
      *
      * @param periodStart    the first day of the planning period (week or month) this day is part of
      * @param periodForecast that period's forecast, which the days of the period add up to
+     * @param events         the names of the location's events on that day
      */
     public record Day(LocalDate date, DayOfWeek weekday, LocalDate periodStart, double periodForecast, double forecast,
-            double lo80, double hi80, double lo95, double hi95, boolean closed) {
+            double lo80, double hi80, double lo95, double hi95, boolean closed, List<String> events) {
     }
 
     /**
@@ -78,6 +81,7 @@ public class NextDays {
 
     private Plan plan(Location location, String measure, IssuedForecast f) {
         LocalDate today = LocalDate.now(clock.withZone(location.zone()));
+        List<dev.tallyvane.engine.series.OpenDays.Event> known = events.forEngine(location.getId());
         Granularity g = Granularity.valueOf(f.granularity());
         String granularity = g.name().toLowerCase(Locale.ROOT);
         if (g == Granularity.DAY) {
@@ -85,7 +89,7 @@ public class NextDays {
             for (IssuedForecast.Point p : f.points()) {
                 if (!p.period().isBefore(today) && p.period().isBefore(today.plusDays(DAYS))) {
                     days.add(new Day(p.period(), p.period().getDayOfWeek(), p.period(), p.forecast(), p.forecast(),
-                            p.lo80(), p.hi80(), p.lo95(), p.hi95(), p.closed()));
+                            p.lo80(), p.hi80(), p.lo95(), p.hi95(), p.closed(), on(known, p.period())));
                 }
             }
             return new Plan(today, granularity, f.id(), f.issuedAt(), days, null, null, days.isEmpty()
@@ -95,7 +99,7 @@ public class NextDays {
         Optional<Series> daily = assembler.assemble(location, measure, Granularity.DAY, clock.instant());
         List<DailySplit.Period> periods = f.points().stream().map(p -> new DailySplit.Period(p.period(), g, p.forecast(),
                 p.lo80(), p.hi80(), p.lo95(), p.hi95(), p.closed())).toList();
-        Optional<DailySplit.Split> split = daily.flatMap(s -> DailySplit.of(s, periods, today, DAYS));
+        Optional<DailySplit.Split> split = daily.flatMap(s -> DailySplit.of(s, known, periods, today, DAYS));
         if (split.isEmpty()) {
             String why = daily.isEmpty()
                     ? "This location reports by the " + granularity + ": there are no daily figures to split its forecast by day."
@@ -109,7 +113,7 @@ public class NextDays {
             double periodForecast = f.points().stream().filter(p -> p.period().equals(d.periodStart())).findFirst()
                     .map(IssuedForecast.Point::forecast).orElse(Double.NaN);
             days.add(new Day(d.date(), d.date().getDayOfWeek(), d.periodStart(), periodForecast, d.forecast(), d.lo80(),
-                    d.hi80(), d.lo95(), d.hi95(), d.closed()));
+                    d.hi80(), d.lo95(), d.hi95(), d.closed(), on(known, d.date())));
         }
         String note = days.isEmpty() ? "The current forecast does not reach today yet; a re-fit brings it up to date."
                 : "Each " + granularity + "'s forecast is split over its days by how sales spread over the week in the "
@@ -117,5 +121,10 @@ public class NextDays {
                         + "more than a " + granularity + ": its range adds the usual day-to-day swing (about "
                         + Math.round(100 * s.deviation()) + "% here) to the " + granularity + "'s own range.";
         return new Plan(today, granularity, f.id(), f.issuedAt(), days, s.weekdayShares(), s.deviation(), note);
+    }
+
+    private static List<String> on(List<dev.tallyvane.engine.series.OpenDays.Event> known, LocalDate day) {
+        return known.stream().filter(e -> e.days().contains(day)).map(dev.tallyvane.engine.series.OpenDays.Event::name)
+                .toList();
     }
 }

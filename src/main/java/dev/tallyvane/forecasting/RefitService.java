@@ -46,12 +46,15 @@ public class RefitService {
     private final SeriesAssembler assembler;
     private final IssuedForecastStore issued;
     private final SeriesStateStore state;
+    private final LocationEvents locationEvents;
     private final ApplicationEventPublisher events;
     private final JsonMapper json;
     private final Clock clock;
 
     RefitService(LocationService locations, SettingsService settings, SeriesAssembler assembler, IssuedForecastStore issued,
-            SeriesStateStore state, ApplicationEventPublisher events, JsonMapper json, Clock clock) {
+            SeriesStateStore state, ApplicationEventPublisher events, JsonMapper json, Clock clock,
+            LocationEvents locationEvents) {
+        this.locationEvents = locationEvents;
         this.locations = locations;
         this.settings = settings;
         this.assembler = assembler;
@@ -95,8 +98,9 @@ public class RefitService {
         long t0 = System.nanoTime();
         // weeks and months holding closed days or holidays: read as usual periods before fitting, and
         // a period ahead forecast from what its days are expected to bring (OpenDays)
+        List<OpenDays.Event> known = granularity == Granularity.DAY ? List.of() : locationEvents.forEngine(locationId);
         OpenDays.Shape shape = granularity == Granularity.DAY ? null : assembler.assemble(location, measure,
-                Granularity.DAY, cutoff).map(OpenDays::shape).orElse(null);
+                Granularity.DAY, cutoff).map(d -> OpenDays.shape(d, known)).orElse(null);
         OpenDays.Adjusted usual = shape == null ? null : shape.adjust(series.get());
         Series input = usual == null ? series.get() : usual.series();
         ForecastResult result;
@@ -124,8 +128,10 @@ public class RefitService {
                 aheadEffects.addAll(shape.effectsIn(granularity, p.period()));
             }
             Double bench = benchmark.forecasts().get(i).forecast() * share;
+            double usualShare = shape == null ? 1 : shape.withoutEffects().share(granularity, p.period());
             points.add(new IssuedForecast.Point(i + 1, p.period(), p.forecast() * share, p.lo80() * share,
-                    p.hi80() * share, p.lo95() * share, p.hi95() * share, bench, p.closed() || share == 0));
+                    p.hi80() * share, p.lo95() * share, p.hi95() * share, bench, p.closed() || share == 0,
+                    usualShare == share ? null : p.forecast() * usualShare));
         }
         List<String> notes = new ArrayList<>(result.notes());
         notes.addAll(calendarNotes(granularity, shape, usual, reduced, aheadEffects));

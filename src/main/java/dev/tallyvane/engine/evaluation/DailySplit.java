@@ -109,7 +109,16 @@ public final class DailySplit {
      *         {@value #MIN_DAYS} open days in complete weeks), or not daily
      */
     public static Optional<Split> of(Series daily, List<Period> periods, LocalDate from, int count) {
-        OpenDays.Shape shape = OpenDays.shape(daily);
+        return of(daily, List.of(), periods, from, count);
+    }
+
+    /**
+     * The same, with the location's events: their days take the share their effect gives them
+     * ({@link OpenDays#shape(Series, List)}), as the planning forecast did.
+     */
+    public static Optional<Split> of(Series daily, List<OpenDays.Event> events, List<Period> periods, LocalDate from,
+            int count) {
+        OpenDays.Shape shape = OpenDays.shape(daily, events);
         if (shape == null) {
             return Optional.empty();
         }

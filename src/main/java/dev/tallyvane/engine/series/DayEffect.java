@@ -19,7 +19,11 @@ import java.util.Set;
  * occurrence from setting it for all (common practice). Whether it earns its place is tested out of
  * sample, leaving one occurrence out at a time: occurrence k is forecast as m_{−k} · ȳ_k, with m_{−k}
  * the median of the other ratios, against ȳ_k without the effect, and the effect is used only when
- * <pre>  Σ_k |y_k − m_{−k} ȳ_k|  &lt;  Σ_k |y_k − ȳ_k|</pre>
+ * <pre>  Σ_k |y_k − m_{−k} ȳ_k|  &lt;  Σ_k |y_k − ȳ_k|   and   |m − 1| ≥ 2 · 1.2533 · s_r / √n</pre>
+ * the second condition asking the factor m to stand two standard errors of a median (s_r the standard
+ * deviation of the n ratios) away from no effect: a factor measured on noise alone often beats "no
+ * effect" out of sample by chance (common practice: the large-sample standard error of a median of
+ * normal data is √(π/2) σ/√n)
  * (the leave-one-out estimate of prediction error: Hastie, Tibshirani &amp; Friedman, "The Elements
  * of Statistical Learning", 2nd ed., Springer 2009, section 7.10). With fewer than
  * {@value #MIN_SEEN} past occurrences nothing is estimated and the days count as usual days.
@@ -108,7 +112,17 @@ public record DayEffect(String name, Set<LocalDate> days, double factor, Source 
         }
         double cut = without > 0 ? 1 - with / without : 0;
         double factor = Math.max(0.05, Math.min(5, median(ratios)));
-        return with < without ? new DayEffect(name, days, factor, Source.ESTIMATED, seen.size(), cut)
+        double mean = 0;
+        for (double r : ratios) {
+            mean += r / ratios.size();
+        }
+        double ss = 0;
+        for (double r : ratios) {
+            ss += (r - mean) * (r - mean);
+        }
+        double standardError = Math.sqrt(Math.PI / 2) * Math.sqrt(ss / (ratios.size() - 1)) / Math.sqrt(ratios.size());
+        boolean clear = Math.abs(median(ratios) - 1) >= 2 * standardError;
+        return with < without && clear ? new DayEffect(name, days, factor, Source.ESTIMATED, seen.size(), cut)
                 : new DayEffect(name, days, 1, Source.NOT_EARNED, seen.size(), cut);
     }
 
@@ -121,7 +135,8 @@ public record DayEffect(String name, Set<LocalDate> days, double factor, Source 
             case ESTIMATED -> String.format(java.util.Locale.ROOT, "%s: %s on a usual day, measured on %d past days; "
                     + "out of sample it cut the error on those days by %.0f%%.", what, pct, seen, 100 * errorCut);
             case NOT_EARNED -> what + ": measured on " + seen + " past days, but out of sample it did not forecast them "
-                    + "better than a usual day, so its days count as usual days.";
+                    + "clearly better than a usual day (its effect was within the day-to-day noise), so its days count "
+                    + "as usual days.";
             case TOO_FEW -> what + ": fewer than " + MIN_SEEN + " past days with figures to learn its effect from, so "
                     + "its days count as usual days.";
         };

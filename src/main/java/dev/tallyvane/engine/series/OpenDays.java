@@ -35,7 +35,8 @@ public final class OpenDays {
 
     /**
      * Weekday weights (index 0 = Monday) from the usual days (open, not holidays) of the last
-     * {@link #WEEKS} weeks of a daily series, or null when the series is not daily or has no open day
+     * {@link #WEEKS} weeks of a daily series (a weekday with no usual day there, such as one with an event
+     * every week, from all its open days), or null when the series is not daily or has no open day
      * in that window.
      */
     public static double[] weekdayWeights(Series daily) {
@@ -46,21 +47,25 @@ public final class OpenDays {
         if (daily.granularity() != Granularity.DAY) {
             return null;
         }
-        double[] sum = new double[7];
-        int[] count = new int[7];
+        // [0] usual days only, [1] every open day (for a weekday that had no usual day: an event every week)
+        double[][] sum = new double[2][7];
+        int[][] count = new int[2][7];
         int n = daily.length();
         for (int t = Math.max(0, n - 7 * WEEKS); t < n; t++) {
             double y = daily.value(t);
-            if (!daily.isClosed(t) && Double.isFinite(y) && !unusual.contains(daily.periodAt(t))) {
+            if (!daily.isClosed(t) && Double.isFinite(y)) {
                 int d = daily.periodAt(t).getDayOfWeek().getValue() - 1;
-                sum[d] += y;
-                count[d]++;
+                for (int k = unusual.contains(daily.periodAt(t)) ? 1 : 0; k < 2; k++) {
+                    sum[k][d] += y;
+                    count[k][d]++;
+                }
             }
         }
         double[] w = new double[7];
         double total = 0;
         for (int d = 0; d < 7; d++) {
-            w[d] = count[d] == 0 ? 0 : Math.max(0, sum[d] / count[d]);
+            int k = count[0][d] > 0 ? 0 : 1;
+            w[d] = count[k][d] == 0 ? 0 : Math.max(0, sum[k][d] / count[k][d]);
             total += w[d];
         }
         return total > 0 ? w : null;
@@ -135,6 +140,11 @@ public final class OpenDays {
 
         public Shape {
             effects = List.copyOf(effects);
+        }
+
+        /** The same shape with closed days only: what a period would bring without its holidays and events. */
+        public Shape withoutEffects() {
+            return new Shape(weekdays, List.of(), calendar);
         }
 
         /** The holidays' effect, if the calendar has holidays. */

@@ -61,7 +61,8 @@ public class IssuedForecastStore {
         }, keys);
         long id = keys.getKey().longValue();
         jdbc.batchUpdate("insert into issued_forecast_point (issued_id, step, period_start, forecast, lo80, hi80, lo95, "
-                + "hi95, benchmark, closed) values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", f.points(), f.points().size(), (ps, p) -> {
+                + "hi95, benchmark, closed, usual_forecast) values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", f.points(), f.points().size(),
+                (ps, p) -> {
                     ps.setLong(1, id);
                     ps.setInt(2, p.step());
                     ps.setObject(3, p.period());
@@ -72,6 +73,7 @@ public class IssuedForecastStore {
                     ps.setDouble(8, p.hi95());
                     setDouble(ps, 9, p.benchmark());
                     ps.setBoolean(10, p.closed());
+                    setDouble(ps, 11, p.usualForecast());
                 });
         return id;
     }
@@ -111,10 +113,10 @@ public class IssuedForecastStore {
 
     private IssuedForecast withPoints(IssuedForecast f) {
         List<IssuedForecast.Point> points = jdbc.query("select step, period_start, forecast, lo80, hi80, lo95, hi95, "
-                + "benchmark, closed from issued_forecast_point where issued_id = ? order by step", (rs, i) ->
+                + "benchmark, closed, usual_forecast from issued_forecast_point where issued_id = ? order by step", (rs, i) ->
                 new IssuedForecast.Point(rs.getInt(1), rs.getObject(2, LocalDate.class), rs.getDouble(3), rs.getDouble(4),
                         rs.getDouble(5), rs.getDouble(6), rs.getDouble(7), (Double) rs.getObject(8, Double.class),
-                        rs.getBoolean(9)), f.id());
+                        rs.getBoolean(9), (Double) rs.getObject(10, Double.class)), f.id());
         return new IssuedForecast(f.id(), f.locationId(), f.measure(), f.granularity(), f.horizon(), f.metric(),
                 f.chosenKey(), f.chosenName(), f.chosenForm(), f.reason(), f.intervalSource(), f.originCount(),
                 f.parametersJson(), f.leaderboardJson(), f.notesJson(), f.promisedMase(), f.maseScale(), f.lastPeriod(),

@@ -3,6 +3,7 @@ package dev.tallyvane.forecasting.web;
 import dev.tallyvane.system.ApiClient;
 import dev.tallyvane.forecasting.ForecastSettings;
 import dev.tallyvane.forecasting.IssuedForecast;
+import dev.tallyvane.forecasting.LocationEvents;
 import dev.tallyvane.forecasting.NextDays;
 import dev.tallyvane.forecasting.RefitQueue;
 import dev.tallyvane.forecasting.RefitService;
@@ -12,6 +13,7 @@ import dev.tallyvane.location.LocationService;
 import dev.tallyvane.system.DomainProblem;
 import io.swagger.v3.oas.annotations.Operation;
 import io.swagger.v3.oas.annotations.tags.Tag;
+import java.math.BigDecimal;
 import java.time.Instant;
 import java.time.LocalDate;
 import java.util.List;
@@ -19,6 +21,7 @@ import java.util.Map;
 import org.springframework.http.HttpStatus;
 import org.springframework.http.ResponseEntity;
 import org.springframework.security.core.annotation.AuthenticationPrincipal;
+import org.springframework.web.bind.annotation.DeleteMapping;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
@@ -42,11 +45,13 @@ class ForecastsApi {
     private final SettingsService settings;
     private final JsonMapper json;
     private final NextDays nextDays;
+    private final LocationEvents events;
 
     private static final String DISCLAIMER = "Forecasts are estimates, not guarantees: the intervals show the likely range.";
 
     ForecastsApi(LocationService locations, RefitService refits, RefitQueue queue, SettingsService settings,
-            JsonMapper json, NextDays nextDays) {
+            JsonMapper json, NextDays nextDays, LocationEvents events) {
+        this.events = events;
         this.nextDays = nextDays;
         this.locations = locations;
         this.refits = refits;
@@ -172,6 +177,58 @@ class ForecastsApi {
                 body.holidays() == null ? List.of() : body.holidays());
         queue.refitNow(l.getId());
         return calendar(code, client);
+    }
+
+    /** An event as the API takes it. */
+    record EventBody(String name, LocalDate firstDay, LocalDate lastDay, String repeats, LocalDate until,
+            Double effectPercent) {
+    }
+
+    /** An event as the API shows it. */
+    record EventView(long id, String name, LocalDate firstDay, LocalDate lastDay, String repeats, LocalDate until,
+            BigDecimal effectPercent, String when, String effect, String createdBy, Instant createdAt) {
+
+        static EventView of(LocationEvents.Event e) {
+            return new EventView(e.id(), e.name(), e.firstDay(), e.lastDay(), e.repeats().code(), e.until(),
+                    e.effectPct(), e.when(), e.effect(), e.createdBy(), e.createdAt());
+        }
+    }
+
+    @Operation(summary = "A location's events (market days, street works, promotions) with their expected effect")
+    @GetMapping("/locations/{code}/events")
+    List<EventView> events(@PathVariable String code, @AuthenticationPrincipal ApiClient client) {
+        return events.of(visible(code, client).getId()).stream().map(EventView::of).toList();
+    }
+
+    @Operation(summary = "Add an event (re-fits the location)", description = """
+            repeats: once (default), weekly, fortnightly or yearly; until: the last day a repeating event may start on \
+            (none: it goes on). effectPercent: the expected uplift (30) or drop (-50) on a usual day; leave it out \
+            to have it estimated from the event's past days (used only when that forecasts them better than a \
+            usual day, tested leaving one past day out at a time).""")
+    @PostMapping("/locations/{code}/events")
+    ResponseEntity<EventView> addEvent(@PathVariable String code, @RequestBody EventBody body,
+            @AuthenticationPrincipal ApiClient client) {
+        Location l = visible(code, client);
+        LocationEvents.Event e = events.add(l.getId(), l.getCode(), new LocationEvents.EventInput(body.name(),
+                text(body.firstDay()), text(body.lastDay()), body.repeats(), text(body.until()),
+                body.effectPercent() == null ? null : BigDecimal.valueOf(body.effectPercent()).toPlainString()),
+                client.actor());
+        queue.refitNow(l.getId());
+        return ResponseEntity.status(HttpStatus.CREATED).body(EventView.of(e));
+    }
+
+    @Operation(summary = "Remove an event (kept in the history; re-fits the location)")
+    @DeleteMapping("/locations/{code}/events/{id}")
+    ResponseEntity<Void> removeEvent(@PathVariable String code, @PathVariable long id,
+            @AuthenticationPrincipal ApiClient client) {
+        Location l = visible(code, client);
+        events.remove(l.getId(), l.getCode(), id, client.actor());
+        queue.refitNow(l.getId());
+        return ResponseEntity.noContent().build();
+    }
+
+    private static String text(LocalDate d) {
+        return d == null ? null : d.toString();
     }
 
     @Operation(summary = "Forecast settings of a location's measure")
