@@ -15,8 +15,10 @@ import tools.jackson.databind.json.JsonMapper;
  *
  * @param metric the metric the selection ranked by
  * @param rows   every candidate
+ * @param notes  what the forecast noted about its data and calendar: short series, closed days, holidays and
+ *               events, with whether each measured effect earned its place out of sample
  */
-public record Leaderboard(Metric metric, List<Line> rows) {
+public record Leaderboard(Metric metric, List<Line> rows, List<String> notes) {
 
     /** One candidate. {@code scores} is empty unless scored. */
     public record Line(int rank, String key, String name, String status, String note, int errorCount,
@@ -54,6 +56,10 @@ public record Leaderboard(Metric metric, List<Line> rows) {
             rows.add(new Line(n.path("rank").asInt(), n.path("key").asString(), n.path("name").asString(),
                     n.path("status").asString(), n.path("note").asString(""), n.path("errorCount").asInt(), scores));
         }
-        return new Leaderboard(Metric.of(f.metric()), rows);
+        List<String> notes = new ArrayList<>();
+        for (JsonNode n : json.readTree(f.notesJson())) {
+            notes.add(n.asString());
+        }
+        return new Leaderboard(Metric.of(f.metric()), rows, notes);
     }
 }

@@ -206,6 +206,32 @@ class DashboardBrowserTests {
         ((JavascriptExecutor) browser.driver()).executeScript("document.getElementById('next-days').scrollIntoView()");
         browser.screenshot("next-days");
 
+        // an event: the owner states street works next Friday will halve sales; a wrong percentage first is
+        // named and nothing is added; the event is listed with who added it, named on its day in the staffing
+        // view, and the forecast's notes say the stated effect was used
+        browser.find("#events summary").click();
+        browser.find("#event-name").sendKeys("Street works");
+        ((JavascriptExecutor) browser.driver()).executeScript(
+                "document.getElementById('event-first').value = '2026-12-11'");
+        browser.find("#event-effect").sendKeys("half");
+        browser.find("#event-form button[type=submit]").click();
+        assertThat(browser.await("#event-problems", 10).getText()).contains("'half' is not a percentage");
+        assertThat(browser.all("#events-table")).isEmpty();
+        browser.find("#event-effect").clear();
+        browser.find("#event-effect").sendKeys("-50");
+        browser.find("#event-form button[type=submit]").click();
+        assertThat(browser.await("#event-saved", 10).getText()).contains("Added 'Street works' (2026-12-11, -50% (stated))");
+        assertThat(browser.find("#events-table").getText()).contains("Street works").contains("olive");
+        Awaitility.await().atMost(Duration.ofSeconds(30)).pollInterval(Duration.ofMillis(200))
+                .until(() -> queue.status(id).idle() && refits.current(id, FigureRules.DEFAULT_MEASURE)
+                        .map(f -> f.notesJson().contains("Street works")).orElse(false));
+        browser.go("/locations/QUAY");
+        assertThat(browser.await("#next-days-table tr[data-date='2026-12-11']", 10).getText()).contains("Street works");
+        assertThat(browser.find("#forecast-notes").getText())
+                .contains("'Street works': -50% on a usual day, as stated by the owner.");
+        ((JavascriptExecutor) browser.driver()).executeScript("document.getElementById('events').scrollIntoView()");
+        browser.screenshot("events");
+
         assertThat(browser.consoleErrors()).as("no script errors or CSP violations").isEmpty();
     }
 }
