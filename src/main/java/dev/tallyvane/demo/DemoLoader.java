@@ -3,6 +3,7 @@ package dev.tallyvane.demo;
 import dev.tallyvane.account.Role;
 import dev.tallyvane.account.UserService;
 import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.forecasting.LocationEvents;
 import dev.tallyvane.forecasting.RefitService;
 import dev.tallyvane.forecasting.SettingsService;
 import dev.tallyvane.intake.FigureInput;
@@ -52,13 +53,15 @@ class DemoLoader implements ApplicationRunner {
     private final SettingsService settings;
     private final Clock clock;
     private final dev.tallyvane.system.StartupWork startup;
+    private final LocationEvents events;
 
     DemoLoader(@Value("${tallyvane.demo.enabled:false}") boolean enabled,
             @Value("${tallyvane.summary.dashboard-url:http://localhost:8080}") String url, UserService users,
             LocationService locations, IntakeService intake, dev.tallyvane.intake.Measures measures, RefitService refits,
             SettingsService settings, Clock clock, org.springframework.core.env.Environment environment,
-            dev.tallyvane.system.StartupWork startup) {
+            dev.tallyvane.system.StartupWork startup, LocationEvents events) {
         this.startup = startup;
+        this.events = events;
         this.measures = measures;
         this.enabled = enabled;
         this.url = url;
@@ -121,6 +124,14 @@ class DemoLoader implements ApplicationRunner {
                     yesterday.minusDays(shop.historyDays() - 1L), null));
             settings.saveCalendar(l.getId(), days.stream().filter(d -> d.closed() && d.code().equals(shop.code())
                     && d.measure().equals("net_sales")).map(DemoScenario.Day::day).toList(), List.of());
+            if (shop.code().equals(DemoScenario.MARKET_SHOP)) {
+                LocalDate first = yesterday.minusDays(shop.historyDays() - 1L);
+                while (!DemoScenario.marketDay(first)) {
+                    first = first.plusDays(1);
+                }
+                events.add(l.getId(), l.getCode(), new LocationEvents.EventInput("Quay market", first.toString(), null,
+                        "fortnightly", null, null), "owner");
+            }
         }
         // history up to twelve weeks ago, then week by week with a re-fit after each, as if time passed
         LocalDate thisWeek = yesterday.plusDays(1).with(TemporalAdjusters.previousOrSame(java.time.DayOfWeek.MONDAY));

@@ -15,11 +15,21 @@ import java.util.Set;
  * high, January low), a slow trend, noise, and closures on 25/26 December and 1 January. Fern Hill
  * opened ten weeks ago; Canalside's sales dropped by a third eight weeks ago (roadworks closed the
  * canal path), which the drift signals flag; Harbour Street also records special-order cakes, a
- * measure that is zero on most days.
+ * measure that is zero on most days. Quayside sells about a quarter more on the Saturdays of the
+ * fortnightly quay market (recorded as an event whose effect the forecast measures).
  */
 final class DemoScenario {
 
     static final long SEED = 20_261_130L;
+    /** The quay market: every other Saturday, these sell about a quarter more at Quayside. */
+    static final String MARKET_SHOP = "QUAYSIDE";
+    static final double MARKET_LIFT = 1.25;
+
+    /** True on a quay-market Saturday (every other Saturday, counted from the epoch). */
+    static boolean marketDay(LocalDate d) {
+        return d.getDayOfWeek() == DayOfWeek.SATURDAY && (d.toEpochDay() / 7) % 2 == 0;
+    }
+
     static final Set<MonthDay> CLOSED = Set.of(MonthDay.of(12, 25), MonthDay.of(12, 26), MonthDay.of(1, 1));
 
     private DemoScenario() {
@@ -62,7 +72,8 @@ final class DemoScenario {
                 }
                 double noise = 1 + 0.07 * random.nextGaussian();
                 boolean closed = CLOSED.contains(MonthDay.from(d));
-                double amount = closed ? 0 : Math.max(0, level * week[d.getDayOfWeek().getValue() - 1] * noise);
+                double market = shop.code().equals(MARKET_SHOP) && marketDay(d) ? MARKET_LIFT : 1;
+                double amount = closed ? 0 : Math.max(0, level * week[d.getDayOfWeek().getValue() - 1] * noise * market);
                 out.add(new Day(shop.code(), "net_sales", d, Math.round(amount * 100) / 100.0, closed));
                 if (shop.code().equals("HARBOUR")) {
                     int cakes = closed || random.nextDouble() > (d.getDayOfWeek() == DayOfWeek.SATURDAY ? 0.45 : 0.12) ? 0

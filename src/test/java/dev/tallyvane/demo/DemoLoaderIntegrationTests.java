@@ -51,6 +51,10 @@ class DemoLoaderIntegrationTests {
         List<String> reasons = jdbc.queryForList("select f.reason from drift_flag f join location l on l.id = f.location_id "
                 + "where l.code = 'CANALSIDE' and f.cleared_at is null", String.class);
         assertThat(reasons).isNotEmpty().allSatisfy(r -> assertThat(r).contains("below forecast"));
+        // Quayside's quay market is an event whose effect the newest forecast measured and used
+        assertThat(jdbc.queryForObject("select f.notes_json from issued_forecast f join location l on l.id = f.location_id "
+                + "where l.code = 'QUAYSIDE' and f.measure = 'net_sales' order by f.id desc fetch first 1 rows only",
+                String.class)).containsPattern("'Quay market': \\+(1[5-9]|2[0-9]|3[0-5])% on a usual day, measured on");
         // the logins are printed for the newcomer
         assertThat(output.getOut()).contains("sign in as").contains("owner      / ").contains("Brindle & Oak Bakehouse");
         // the sign-ins are printed before the figures load (the sign-in page is served meanwhile)
