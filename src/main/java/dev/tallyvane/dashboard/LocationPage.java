@@ -5,6 +5,7 @@ import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.DriftFlag;
 import dev.tallyvane.forecasting.IssuedForecast;
 import dev.tallyvane.forecasting.NextDays;
+import dev.tallyvane.forecasting.RealChanges;
 import dev.tallyvane.forecasting.RefitService;
 import dev.tallyvane.intake.FigureFacts;
 import dev.tallyvane.intake.FigureRules;
@@ -29,10 +30,12 @@ public class LocationPage {
     private final LocationService locations;
     private final NextDays nextDays;
     private final EventScores eventScores;
+    private final RealChanges realChanges;
 
     LocationPage(RefitService refits, FlagService accuracy, FigureFacts figures, LocationCharts charts,
             JsonMapper json, ChainTotals chainTotals, LocationService locations, NextDays nextDays,
-            EventScores eventScores) {
+            EventScores eventScores, RealChanges realChanges) {
+        this.realChanges = realChanges;
         this.eventScores = eventScores;
         this.nextDays = nextDays;
         this.chainTotals = chainTotals;
@@ -56,11 +59,12 @@ public class LocationPage {
      *                    period, as the overview and the e-mail show it, or null
      * @param days        the next days by day (the staffing view), or null without a forecast
      * @param events      the location's events with their value added so far
+     * @param change      the owner's mark of a real change in sales, or null
      */
     public record Content(IssuedForecast forecast, Leaderboard leaderboard, String lastOutcome,
             LocationCharts.ForecastChart chart, LocationCharts.AccuracyChart accuracy, List<DriftFlag> flags,
             List<FigureFacts.Recent> recent, ChainTotals.Total chain, NextDays.Plan days,
-            EventScores.Report events) {
+            EventScores.Report events, RealChanges.Mark change) {
 
         /** This location's first-period forecast as a share of the chain's, in percent, or NaN. */
         public double chainSharePct() {
@@ -80,6 +84,7 @@ public class LocationPage {
                 f.filter(x -> l.isActive() && !x.points().isEmpty()).flatMap(x -> chainTotals.of(measure,
                         locations.all().stream().filter(Location::isActive).toList(), l.getCurrency(), x.granularity(),
                         x.points().get(0).period())).orElse(null),
-                l.isActive() ? nextDays.of(l, measure).orElse(null) : null, eventScores.of(l, measure));
+                l.isActive() ? nextDays.of(l, measure).orElse(null) : null, eventScores.of(l, measure),
+                realChanges.of(l.getId(), measure).orElse(null));
     }
 }

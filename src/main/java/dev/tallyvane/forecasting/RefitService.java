@@ -18,6 +18,7 @@ import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
 import java.time.Clock;
 import java.time.Instant;
+import java.time.LocalDate;
 import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
 import java.util.List;
@@ -47,13 +48,15 @@ public class RefitService {
     private final IssuedForecastStore issued;
     private final SeriesStateStore state;
     private final LocationEvents locationEvents;
+    private final RealChanges realChanges;
     private final ApplicationEventPublisher events;
     private final JsonMapper json;
     private final Clock clock;
 
     RefitService(LocationService locations, SettingsService settings, SeriesAssembler assembler, IssuedForecastStore issued,
             SeriesStateStore state, ApplicationEventPublisher events, JsonMapper json, Clock clock,
-            LocationEvents locationEvents) {
+            LocationEvents locationEvents, RealChanges realChanges) {
+        this.realChanges = realChanges;
         this.locationEvents = locationEvents;
         this.locations = locations;
         this.settings = settings;
@@ -84,6 +87,31 @@ public class RefitService {
         ForecastSettings s = settings.settings(locationId, measure);
         Granularity granularity = assembler.granularity(location, measure, s);
         Optional<Series> series = assembler.assemble(location, measure, granularity, cutoff);
+        // the owner's mark of a real change: start the models there when enough periods follow it
+        String changeNote = null;
+        Optional<RealChanges.Mark> mark = realChanges.of(locationId, measure);
+        if (mark.isPresent() && series.isPresent()) {
+            Series all = series.get();
+            LocalDate from = mark.get().from();
+            int cut = (int) Math.max(0, granularity.periodsBetween(all.start(), granularity.isPeriodStart(from) ? from
+                    : granularity.plus(granularity.periodStart(from), 1)));
+            int after = 0;
+            for (int t = cut; t < all.length(); t++) {
+                after += Double.isNaN(all.value(t)) ? 0 : 1;
+            }
+            String unit = SettingsService.lower(granularity);
+            if (cut > 0 && after >= RealChanges.MIN_PERIODS) {
+                series = Optional.of(new Series(granularity, all.periodAt(cut), java.util.Arrays.copyOfRange(all.values(),
+                        cut, all.length()), all.calendar()));
+                changeNote = "Fitted on the figures from " + all.periodAt(cut) + " on: " + mark.get().markedBy()
+                        + " marked a real change in sales from " + from + ", so the " + cut + " earlier " + unit
+                        + (cut == 1 ? " is" : "s are") + " left out.";
+            } else if (cut > 0) {
+                changeNote = mark.get().markedBy() + " marked a real change in sales from " + from + ", but only " + after
+                        + " complete " + unit + (after == 1 ? "" : "s") + " follow it: the models start there once "
+                        + RealChanges.MIN_PERIODS + " do; until then the earlier figures are still used.";
+            }
+        }
         long observed = series.map(x -> java.util.Arrays.stream(x.values()).filter(v -> !Double.isNaN(v)).count())
                 .orElse(0L);
         if (observed < 2) {
@@ -134,6 +162,9 @@ public class RefitService {
                     usualShare == share ? null : p.forecast() * usualShare));
         }
         List<String> notes = new ArrayList<>(result.notes());
+        if (changeNote != null) {
+            notes.add(changeNote);
+        }
         notes.addAll(calendarNotes(granularity, shape, usual, reduced, aheadEffects));
         Double promised = result.leaderboard().stream().filter(e -> e.key().equals(result.chosenKey())
                 && e.status() == LeaderboardEntry.Status.SCORED).map(e -> e.score(Metric.MASE)).findFirst().orElse(null);

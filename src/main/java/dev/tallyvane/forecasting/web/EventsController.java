@@ -1,7 +1,9 @@
 package dev.tallyvane.forecasting.web;
 
 import dev.tallyvane.forecasting.LocationEvents;
+import dev.tallyvane.forecasting.RealChanges;
 import dev.tallyvane.forecasting.RefitQueue;
+import dev.tallyvane.intake.FigureRules;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
 import dev.tallyvane.system.InvalidRequest;
@@ -9,17 +11,23 @@ import java.security.Principal;
 import org.springframework.stereotype.Controller;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
+import org.springframework.web.bind.annotation.RequestParam;
 import org.springframework.web.servlet.mvc.support.RedirectAttributes;
 
-/** The owner adds and removes a location's events on its page; each change re-fits the location. */
+/**
+ * The owner's marks on a location's calendar, from its page: events added and removed, and a real
+ * change in sales marked or unmarked; each change re-fits the location.
+ */
 @Controller
 class EventsController {
 
     private final LocationService locations;
     private final LocationEvents events;
     private final RefitQueue queue;
+    private final RealChanges changes;
 
-    EventsController(LocationService locations, LocationEvents events, RefitQueue queue) {
+    EventsController(LocationService locations, LocationEvents events, RefitQueue queue, RealChanges changes) {
+        this.changes = changes;
         this.locations = locations;
         this.events = events;
         this.queue = queue;
@@ -47,5 +55,29 @@ class EventsController {
         queue.refitNow(l.getId());
         redirect.addFlashAttribute("eventSaved", "Removed the event; a re-fit without it is queued.");
         return "redirect:/locations/" + l.getCode() + "#events";
+    }
+
+    @PostMapping("/locations/{code}/real-change")
+    String markChange(@PathVariable String code, @RequestParam(required = false) String from, Principal user,
+            RedirectAttributes redirect) {
+        Location l = locations.byCode(code);
+        try {
+            RealChanges.Mark m = changes.mark(l.getId(), l.getCode(), FigureRules.DEFAULT_MEASURE, from, user.getName());
+            queue.refitNow(l.getId());
+            redirect.addFlashAttribute("changeSaved", "Marked a real change from " + m.from()
+                    + "; a re-fit starting the models there is queued.");
+        } catch (InvalidRequest e) {
+            redirect.addFlashAttribute("changeProblems", e.problems());
+        }
+        return "redirect:/locations/" + l.getCode() + "#flags-h";
+    }
+
+    @PostMapping("/locations/{code}/real-change/remove")
+    String removeChange(@PathVariable String code, Principal user, RedirectAttributes redirect) {
+        Location l = locations.byCode(code);
+        changes.remove(l.getId(), l.getCode(), FigureRules.DEFAULT_MEASURE, user.getName());
+        queue.refitNow(l.getId());
+        redirect.addFlashAttribute("changeSaved", "The mark is removed; a re-fit on all the figures is queued.");
+        return "redirect:/locations/" + l.getCode() + "#flags-h";
     }
 }

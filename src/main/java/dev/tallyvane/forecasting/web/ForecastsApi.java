@@ -5,6 +5,7 @@ import dev.tallyvane.forecasting.ForecastSettings;
 import dev.tallyvane.forecasting.IssuedForecast;
 import dev.tallyvane.forecasting.LocationEvents;
 import dev.tallyvane.forecasting.NextDays;
+import dev.tallyvane.forecasting.RealChanges;
 import dev.tallyvane.forecasting.RefitQueue;
 import dev.tallyvane.forecasting.RefitService;
 import dev.tallyvane.forecasting.SettingsService;
@@ -46,11 +47,13 @@ class ForecastsApi {
     private final JsonMapper json;
     private final NextDays nextDays;
     private final LocationEvents events;
+    private final RealChanges changes;
 
     private static final String DISCLAIMER = "Forecasts are estimates, not guarantees: the intervals show the likely range.";
 
     ForecastsApi(LocationService locations, RefitService refits, RefitQueue queue, SettingsService settings,
-            JsonMapper json, NextDays nextDays, LocationEvents events) {
+            JsonMapper json, NextDays nextDays, LocationEvents events, RealChanges changes) {
+        this.changes = changes;
         this.events = events;
         this.nextDays = nextDays;
         this.locations = locations;
@@ -229,6 +232,40 @@ class ForecastsApi {
 
     private static String text(LocalDate d) {
         return d == null ? null : d.toString();
+    }
+
+    /** A real change as the API takes and shows it. */
+    record RealChangeBody(LocalDate from, String markedBy, Instant markedAt) {
+    }
+
+    @Operation(summary = "The owner's mark of a real change in a series' sales, if any")
+    @GetMapping("/locations/{code}/real-change")
+    ResponseEntity<RealChangeBody> realChange(@PathVariable String code,
+            @RequestParam(defaultValue = "net_sales") String measure, @AuthenticationPrincipal ApiClient client) {
+        return changes.of(visible(code, client).getId(), measure).map(m -> ResponseEntity.ok(new RealChangeBody(m.from(),
+                m.markedBy(), m.markedAt()))).orElse(ResponseEntity.noContent().build());
+    }
+
+    @Operation(summary = "Mark a real change in sales from a day (re-fits: the models start there once "
+            + RealChanges.MIN_PERIODS + " complete periods follow it)")
+    @PutMapping("/locations/{code}/real-change")
+    RealChangeBody markRealChange(@PathVariable String code, @RequestParam(defaultValue = "net_sales") String measure,
+            @RequestBody RealChangeBody body, @AuthenticationPrincipal ApiClient client) {
+        Location l = visible(code, client);
+        RealChanges.Mark m = changes.mark(l.getId(), l.getCode(), measure, body.from() == null ? null
+                : body.from().toString(), client.actor());
+        queue.refitNow(l.getId());
+        return new RealChangeBody(m.from(), m.markedBy(), m.markedAt());
+    }
+
+    @Operation(summary = "Remove the mark of a real change (re-fits on all the figures)")
+    @DeleteMapping("/locations/{code}/real-change")
+    ResponseEntity<Void> removeRealChange(@PathVariable String code,
+            @RequestParam(defaultValue = "net_sales") String measure, @AuthenticationPrincipal ApiClient client) {
+        Location l = visible(code, client);
+        changes.remove(l.getId(), l.getCode(), measure, client.actor());
+        queue.refitNow(l.getId());
+        return ResponseEntity.noContent().build();
     }
 
     @Operation(summary = "Forecast settings of a location's measure")
