@@ -3,6 +3,7 @@ package dev.tallyvane.forecasting;
 import dev.tallyvane.engine.ForecastEngine;
 import dev.tallyvane.engine.ForecastRequest;
 import dev.tallyvane.engine.ForecastResult;
+import dev.tallyvane.engine.ShiftTrial;
 import dev.tallyvane.engine.evaluation.ErrorSample;
 import dev.tallyvane.engine.evaluation.LeaderboardEntry;
 import dev.tallyvane.engine.evaluation.Metric;
@@ -49,14 +50,16 @@ public class RefitService {
     private final SeriesStateStore state;
     private final LocationEvents locationEvents;
     private final RealChanges realChanges;
+    private final LevelShifts levelShifts;
     private final ApplicationEventPublisher events;
     private final JsonMapper json;
     private final Clock clock;
 
     RefitService(LocationService locations, SettingsService settings, SeriesAssembler assembler, IssuedForecastStore issued,
             SeriesStateStore state, ApplicationEventPublisher events, JsonMapper json, Clock clock,
-            LocationEvents locationEvents, RealChanges realChanges) {
+            LocationEvents locationEvents, RealChanges realChanges, LevelShifts levelShifts) {
         this.realChanges = realChanges;
+        this.levelShifts = levelShifts;
         this.locationEvents = locationEvents;
         this.locations = locations;
         this.settings = settings;
@@ -93,8 +96,7 @@ public class RefitService {
         if (mark.isPresent() && series.isPresent()) {
             Series all = series.get();
             LocalDate from = mark.get().from();
-            int cut = (int) Math.max(0, granularity.periodsBetween(all.start(), granularity.isPeriodStart(from) ? from
-                    : granularity.plus(granularity.periodStart(from), 1)));
+            int cut = firstPeriodFrom(all, from);
             int after = 0;
             for (int t = cut; t < all.length(); t++) {
                 after += Double.isNaN(all.value(t)) ? 0 : 1;
@@ -131,6 +133,31 @@ public class RefitService {
                 Granularity.DAY, cutoff).map(d -> OpenDays.shape(d, known)).orElse(null);
         OpenDays.Adjusted usual = shape == null ? null : shape.adjust(series.get());
         Series input = usual == null ? series.get() : usual.series();
+        // a level shift the drift watch found: start the models after it if that forecasts better out of sample
+        String shiftNote = null;
+        Optional<LevelShifts.Shift> shift = mark.isPresent() ? Optional.empty() : levelShifts.of(locationId, measure);
+        if (shift.isPresent()) {
+            int at = firstPeriodFrom(input, shift.get().from());
+            String unit = SettingsService.lower(granularity);
+            Optional<ShiftTrial.Outcome> trial;
+            try {
+                trial = ShiftTrial.run(input, request, at);
+            } catch (IllegalArgumentException e) {
+                trial = Optional.empty();
+            }
+            if (trial.isPresent()) {
+                levelShifts.tried(locationId, measure, trial.get());
+                shiftNote = "The drift watch found a shift in sales from " + shift.get().from() + ". "
+                        + trial.get().describe(unit);
+                if (trial.get().startAfter()) {
+                    input = ShiftTrial.slice(input, at, input.length());
+                }
+            } else if (at > 0 && at < input.length()) {
+                shiftNote = "The drift watch found a shift in sales from " + shift.get().from() + ": once "
+                        + ShiftTrial.MIN_AFTER + " complete " + unit + "s follow it, each re-fit tries starting the "
+                        + "models there and keeps that only if it forecasts better out of sample.";
+            }
+        }
         ForecastResult result;
         ForecastResult benchmark;
         try {
@@ -165,6 +192,9 @@ public class RefitService {
         if (changeNote != null) {
             notes.add(changeNote);
         }
+        if (shiftNote != null) {
+            notes.add(shiftNote);
+        }
         notes.addAll(calendarNotes(granularity, shape, usual, reduced, aheadEffects));
         Double promised = result.leaderboard().stream().filter(e -> e.key().equals(result.chosenKey())
                 && e.status() == LeaderboardEntry.Status.SCORED).map(e -> e.score(Metric.MASE)).findFirst().orElse(null);
@@ -188,6 +218,13 @@ public class RefitService {
         String message = "issued #" + id + ": " + result.chosenName();
         state.fitted(key, clock.instant(), cutoff, message);
         return new Outcome(id, message, cutoff);
+    }
+
+    /** The index of the first whole period of the series that starts on or after a day (0 when before the series). */
+    private static int firstPeriodFrom(Series series, LocalDate day) {
+        Granularity g = series.granularity();
+        return (int) Math.max(0, g.periodsBetween(series.start(), g.isPeriodStart(day) ? day
+                : g.plus(g.periodStart(day), 1)));
     }
 
     /** What the calendar changed, in plain words for the forecast's notes. */

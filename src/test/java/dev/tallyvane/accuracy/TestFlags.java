@@ -13,6 +13,7 @@ public final class TestFlags {
     }
 
     public static void raise(ApplicationContext context, long locationId, String measure, LocalDate since, String reason) {
-        context.getBean(FlagStore.class).raise(locationId, measure, Signal.TRIGG, 0.74, 0.5, since, reason, Instant.now());
+        context.getBean(FlagStore.class).raise(locationId, measure, Signal.TRIGG, 0.74, 0.5, since, reason,
+                "tracking signal 0.74, limit ±0.51", Instant.now());
     }
 }

@@ -31,7 +31,7 @@ class TableOwnershipTests {
             "account", Set.of("app_user", "api_token", "audit_event", "first_run_setup", "password_reset"),
             "intake", Set.of("figure_revision", "idempotency_record", "upload", "measure"),
             "forecasting", Set.of("forecast_settings", "calendar_day", "series_state", "issued_forecast",
-                    "issued_forecast_point", "series_fit", "location_event", "series_break"),
+                    "issued_forecast_point", "series_fit", "location_event", "series_break", "level_shift"),
             "accuracy", Set.of("forecast_error", "drift_flag", "accuracy_glance", "accuracy_series"),
             "summary", Set.of("summary_send", "app_setting"),
             "system", Set.of("scheduled_tasks", "event_publication"));

@@ -102,7 +102,8 @@ class CalendarBench {
         return new Series(Granularity.WEEK, daily.periodAt(first), w, daily.calendar());
     }
 
-    private static double median(Runnable work) {
+    /** Median milliseconds of 30 timed runs after 10 warm-up runs (the calendar and shift-trial benches). */
+    static double median(Runnable work) {
         for (int i = 0; i < 10; i++) {
             work.run();
         }

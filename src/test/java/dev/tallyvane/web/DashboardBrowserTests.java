@@ -143,9 +143,13 @@ class DashboardBrowserTests {
         badge.sendKeys(Keys.TAB);
         assertThat(browser.find("#overview .flag .tip").getText()).isEmpty(); // hidden until hovered or focused
         browser.go("/locations/QUAY");
+        // the flag says what the service did and what the owner can do, with the one-click mark
+        assertThat(browser.find("#flags .flag-did").getText()).isNotBlank();
+        assertThat(browser.find("#flags .flag-can").getText()).startsWith("If sales moved for good, mark a real change from 2026-11-09.");
+        assertThat(browser.find("#flags .flag-actions").getText()).contains("A real change from 2026-11-09");
         browser.find("#flags input[name=note]").sendKeys("new office block opened nearby");
         browser.find("#flags select[name=snoozeDays] option[value='7']").click();
-        browser.find("#flags button[type=submit]").click();
+        browser.find("#flags form[action$='/acknowledge'] button[type=submit]").click();
         assertThat(browser.await("#flags .ack", 10).getText()).contains("acknowledged by olive")
                 .contains("new office block opened nearby").contains("snoozed until");
 

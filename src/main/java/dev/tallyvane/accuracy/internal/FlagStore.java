@@ -18,7 +18,7 @@ import org.springframework.stereotype.Repository;
 public class FlagStore {
 
     private static final String COLUMNS = "f.id, f.location_id, f.measure, f.signal, f.signal_value, f.limit_value, "
-            + "f.since_period, f.raised_at, f.cleared_at, f.reason, f.acknowledged_at, f.acknowledged_by, f.snoozed_until, f.note";
+            + "f.since_period, f.raised_at, f.cleared_at, f.reason, f.acknowledged_at, f.acknowledged_by, f.snoozed_until, f.note, f.signals";
 
     private final JdbcTemplate jdbc;
     private final LocationService locations;
@@ -38,29 +38,32 @@ public class FlagStore {
         return (rs, i) -> new DriftFlag(rs.getLong(1), rs.getLong(2), codes.get(rs.getLong(2)), rs.getString(3),
                 Signal.valueOf(rs.getString(4)), rs.getDouble(5), rs.getDouble(6), rs.getObject(7, LocalDate.class),
                 instant(rs.getTimestamp(8)), instant(rs.getTimestamp(9)), rs.getString(10), instant(rs.getTimestamp(11)),
-                rs.getString(12), instant(rs.getTimestamp(13)), rs.getString(14));
+                rs.getString(12), instant(rs.getTimestamp(13)), rs.getString(14), rs.getString(15), null);
     }
 
     private static Instant instant(Timestamp t) {
         return t == null ? null : t.toInstant();
     }
 
-    public Optional<DriftFlag> open(long locationId, String measure, Signal signal) {
+    /** The series' open flags, oldest first (one per episode; more only from before episodes were kept as one). */
+    public List<DriftFlag> open(long locationId, String measure) {
         return jdbc.query("select " + COLUMNS + " from drift_flag f "
-                + "where f.location_id = ? and f.measure = ? and f.signal = ? and f.cleared_at is null",
-                mapper(locationId), locationId,
-                measure, signal.name()).stream().findFirst();
+                + "where f.location_id = ? and f.measure = ? and f.cleared_at is null order by f.id",
+                mapper(locationId), locationId, measure);
     }
 
+    /** Raises a flag: its lead signal, since when, the reason in plain words and every signal that fired as detail. */
     public void raise(long locationId, String measure, Signal signal, double value, double limit, LocalDate since,
-            String reason, Instant at) {
+            String reason, String signals, Instant at) {
         jdbc.update("insert into drift_flag (location_id, measure, signal, signal_value, limit_value, since_period, "
-                + "raised_at, reason) values (?, ?, ?, ?, ?, ?, ?, ?)", locationId, measure, signal.name(), value, limit,
-                since, Timestamp.from(at), reason);
+                + "raised_at, reason, signals) values (?, ?, ?, ?, ?, ?, ?, ?, ?)", locationId, measure, signal.name(),
+                value, limit, since, Timestamp.from(at), reason, signals);
     }
 
-    public void update(long id, double value, String reason) {
-        jdbc.update("update drift_flag set signal_value = ?, reason = ? where id = ?", value, reason, id);
+    /** The episode goes on: its lead signal, reason and detail as they are now (since when stays). */
+    public void update(long id, Signal signal, double value, double limit, String reason, String signals) {
+        jdbc.update("update drift_flag set signal = ?, signal_value = ?, limit_value = ?, reason = ?, signals = ? "
+                + "where id = ?", signal.name(), value, limit, reason, signals, id);
     }
 
     public void clear(long id, Instant at) {

@@ -20,7 +20,11 @@ import java.util.List;
  * Montgomery, <i>Introduction to Statistical Quality Control</i>, §9.1): on standardised errors
  * z_t = e_t/σ_t, C⁺_t = max(0, C⁺_{t−1} + z_t − k), C⁻_t = max(0, C⁻_{t−1} − z_t − k); fires when
  * either exceeds h (k = 0.5, h = 5). σ_t is the standard deviation the forecast itself stated for
- * that period (from its 95% interval), so the errors are judged against the promised spread.</li>
+ * that period (from its 95% interval), so the errors are judged against the promised spread. Each
+ * sum is capped at h + 2: the forecasts re-fit and catch up with a shift, and an uncapped sum that
+ * climbed to 80 during the shift would then need some 160 periods of unbiased errors to fall back
+ * (−k a period on average) while nothing is wrong any more; capped, it takes about four. The cap
+ * does not delay an alarm, which needs the sum above h, below the cap.</li>
  * <li><b>Error ratio</b>: MASE of the last r errors (r = 6) over the MASE the rolling-origin test
  * promised when the model was chosen; fires above 1.5.</li>
  * </ul>
@@ -33,6 +37,7 @@ public final class DriftSignals {
     public static final double CUMULATIVE_LIMIT = 4;
     public static final double CUSUM_K = 0.5;
     public static final double CUSUM_H = 5;
+    public static final double CUSUM_CAP = CUSUM_H + 2;
     public static final int RATIO_WINDOW = 6;
     public static final double RATIO_LIMIT = 1.5;
 
@@ -124,8 +129,8 @@ public final class DriftSignals {
                 continue;
             }
             double z = o.error() / o.sigma();
-            double newUp = Math.max(0, up + z - CUSUM_K);
-            double newDown = Math.max(0, down - z - CUSUM_K);
+            double newUp = Math.min(CUSUM_CAP, Math.max(0, up + z - CUSUM_K));
+            double newDown = Math.min(CUSUM_CAP, Math.max(0, down - z - CUSUM_K));
             upStart = newUp > 0 ? (up > 0 ? upStart : i) : -1;
             downStart = newDown > 0 ? (down > 0 ? downStart : i) : -1;
             up = newUp;

@@ -4,6 +4,8 @@ import dev.tallyvane.accuracy.AccuracyReports;
 import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.DriftFlag;
 import dev.tallyvane.accuracy.UnknownFlag;
+import dev.tallyvane.forecasting.LocationEvents;
+import dev.tallyvane.forecasting.RefitQueue;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
 import dev.tallyvane.system.ApiClient;
@@ -28,8 +30,10 @@ class AccuracyApi {
     private final LocationService locations;
     private final AccuracyReports accuracy;
     private final FlagService flags;
+    private final RefitQueue queue;
 
-    AccuracyApi(LocationService locations, AccuracyReports accuracy, FlagService flags) {
+    AccuracyApi(LocationService locations, AccuracyReports accuracy, FlagService flags, RefitQueue queue) {
+        this.queue = queue;
         this.locations = locations;
         this.accuracy = accuracy;
         this.flags = flags;
@@ -87,5 +91,22 @@ class AccuracyApi {
                 .orElseThrow(() -> new UnknownFlag(id));
         flags.acknowledge(id, client.actor(), body == null ? null : body.note(), body == null ? null : body.snoozeDays());
         return flags.flag(id).orElseThrow();
+    }
+
+    /** Recording a flag's episode as an event. */
+    record AsEvent(String name) {
+    }
+
+    @Operation(summary = "Record a drift flag's episode as a one-off event (its days, the effect it had) and "
+            + "acknowledge the flag; a re-fit reading those days as unusual is queued")
+    @PostMapping("/flags/{id}/event")
+    @org.springframework.web.bind.annotation.ResponseStatus(org.springframework.http.HttpStatus.CREATED)
+    LocationEvents.Event recordAsEvent(@PathVariable long id, @RequestBody(required = false) AsEvent body,
+            @AuthenticationPrincipal ApiClient client) {
+        DriftFlag flag = flags.flag(id).filter(f -> client.allLocations() || client.locationId().equals(f.locationId()))
+                .orElseThrow(() -> new UnknownFlag(id));
+        LocationEvents.Event e = flags.recordAsEvent(id, body == null ? null : body.name(), client.actor());
+        queue.refitNow(flag.locationId());
+        return e;
     }
 }

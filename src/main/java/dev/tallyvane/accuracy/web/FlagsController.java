@@ -1,22 +1,28 @@
 package dev.tallyvane.accuracy.web;
 
-import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.DriftFlag;
+import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.UnknownFlag;
+import dev.tallyvane.forecasting.LocationEvents;
+import dev.tallyvane.forecasting.RefitQueue;
+import dev.tallyvane.system.InvalidRequest;
 import java.security.Principal;
 import org.springframework.stereotype.Controller;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
 import org.springframework.web.bind.annotation.RequestParam;
+import org.springframework.web.servlet.mvc.support.RedirectAttributes;
 
-/** Acknowledging (and optionally snoozing) a drift flag from the location page. */
+/** Acknowledging (and optionally snoozing) a drift flag from the location page, or recording it as an event. */
 @Controller
 class FlagsController {
 
     private final FlagService accuracy;
+    private final RefitQueue queue;
 
-    FlagsController(FlagService accuracy) {
+    FlagsController(FlagService accuracy, RefitQueue queue) {
         this.accuracy = accuracy;
+        this.queue = queue;
     }
 
     @PostMapping("/flags/{id}/acknowledge")
@@ -25,5 +31,20 @@ class FlagsController {
         DriftFlag flag = accuracy.flag(id).orElseThrow(() -> new UnknownFlag(id));
         accuracy.acknowledge(id, user.getName(), note, snoozeDays);
         return "redirect:/locations/" + flag.location();
+    }
+
+    @PostMapping("/flags/{id}/event")
+    String recordAsEvent(@PathVariable long id, @RequestParam(required = false) String name, Principal user,
+            RedirectAttributes redirect) {
+        DriftFlag flag = accuracy.flag(id).orElseThrow(() -> new UnknownFlag(id));
+        try {
+            LocationEvents.Event e = accuracy.recordAsEvent(id, name, user.getName());
+            queue.refitNow(flag.locationId());
+            redirect.addFlashAttribute("flagSaved", "Recorded '" + e.name() + "' (" + e.when() + ", " + e.effect()
+                    + ") as an event; a re-fit reading those days as unusual is queued.");
+        } catch (InvalidRequest e) {
+            redirect.addFlashAttribute("flagProblems", e.problems());
+        }
+        return "redirect:/locations/" + flag.location() + "#flags-h";
     }
 }

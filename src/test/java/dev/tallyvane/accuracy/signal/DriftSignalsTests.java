@@ -47,6 +47,22 @@ class DriftSignalsTests {
         assertThat(fired.sinceIndex()).isZero();
     }
 
+    /** Capped at h + 2: after forecasts caught up with a shift, unbiased errors bring it back within h in a few periods. */
+    @Test
+    void cusumIsCappedSoItClearsOnceTheForecastsCaughtUp() {
+        List<DriftSignals.Observation> o = new ArrayList<>();
+        for (int i = 0; i < 20; i++) {
+            o.add(obs(-4)); // a shift the forecasts missed for 20 periods: uncapped, C⁻ would reach 70
+        }
+        assertThat(DriftSignals.cusum(o).value()).isEqualTo(-DriftSignals.CUSUM_CAP);
+        int periods = 0;
+        while (DriftSignals.cusum(o).fired()) {
+            o.add(obs(0)); // the re-fitted forecasts are right again
+            periods++;
+        }
+        assertThat(periods).isEqualTo(4); // 7 → 6.5 → 6 → 5.5 → 5, no longer above h (k = 0.5 a period)
+    }
+
     @Test
     void errorRatioComparesRecentMaseWithThePromise() {
         List<DriftSignals.Observation> o = List.of(new DriftSignals.Observation(2, 1, 1), new DriftSignals.Observation(-2, 1, 1),
