@@ -128,9 +128,12 @@ public class RefitService {
         long t0 = System.nanoTime();
         // weeks and months holding closed days or holidays: read as usual periods before fitting, and
         // a period ahead forecast from what its days are expected to bring (OpenDays)
-        List<OpenDays.Event> known = granularity == Granularity.DAY ? List.of() : locationEvents.forEngine(locationId);
-        OpenDays.Shape shape = granularity == Granularity.DAY ? null : assembler.assemble(location, measure,
-                Granularity.DAY, cutoff).map(d -> OpenDays.shape(d, known)).orElse(null);
+        // forecast by the day: the events' effects day by day (holidays and closed days are the daily candidates' own)
+        List<OpenDays.Event> known = locationEvents.forEngine(locationId);
+        OpenDays.Shape shape = granularity == Granularity.DAY
+                ? (known.isEmpty() ? null : OpenDays.shape(series.get(), known).withoutHolidays())
+                : assembler.assemble(location, measure, Granularity.DAY, cutoff).map(d -> OpenDays.shape(d, known))
+                        .orElse(null);
         OpenDays.Adjusted usual = shape == null ? null : shape.adjust(series.get());
         Series input = usual == null ? series.get() : usual.series();
         // a level shift the drift watch found: start the models after it if that forecasts better out of sample
@@ -240,7 +243,10 @@ public class RefitService {
                     + "events: read as usual " + unit + "s before the models were fitted (divided by the share of a "
                     + "usual " + unit + "'s sales their days were expected to bring).");
         }
-        if (reduced > 0) {
+        if (reduced > 0 && g == Granularity.DAY) {
+            notes.add(reduced + " day" + (reduced == 1 ? "" : "s") + " ahead " + (reduced == 1 ? "falls" : "fall")
+                    + " on events: forecast as a usual day of the weekday times the event's effect.");
+        } else if (reduced > 0) {
             notes.add(reduced + " " + unit + (reduced == 1 ? "" : "s") + " ahead " + (reduced == 1 ? "holds" : "hold")
                     + " closed days, holidays or events: forecast from what their days are expected to bring, each "
                     + "weekday weighted by its sales over the last " + OpenDays.WEEKS + " weeks.");

@@ -70,6 +70,27 @@ class OpenDaysTests {
     }
 
     @Test
+    void forecastByTheDayAnEventDayIsAUsualDayTimesItsEffect() {
+        Series daily = shop();
+        LocalDate pastWorks = LocalDate.of(2026, 11, 17); // a Tuesday in the data
+        LocalDate works = LocalDate.of(2026, 12, 8);      // a Tuesday ahead
+        double[] y = daily.values();
+        y[(int) (pastWorks.toEpochDay() - daily.start().toEpochDay())] = 50;
+        Series withWorks = new Series(Granularity.DAY, daily.start(), y, daily.calendar());
+        OpenDays.Shape shape = OpenDays.shape(withWorks, java.util.List.of(new OpenDays.Event("Street works",
+                Set.of(pastWorks, works), -50.0))).withoutHolidays();
+        assertThat(shape.share(Granularity.DAY, works)).isCloseTo(0.5, within(1e-12));
+        assertThat(shape.share(Granularity.DAY, works.plusDays(1))).isEqualTo(1);
+        assertThat(shape.share(Granularity.DAY, LocalDate.of(2026, 12, 13))).as("a closed Sunday is the engine's")
+                .isEqualTo(1);
+        assertThat(shape.withoutEffects().share(Granularity.DAY, works)).isEqualTo(1);
+        // the past works day is read as the usual Tuesday it would have been
+        OpenDays.Adjusted usual = shape.adjust(withWorks);
+        assertThat(usual.adjusted()).isEqualTo(1);
+        assertThat(usual.series().value((int) (pastWorks.toEpochDay() - daily.start().toEpochDay()))).isEqualTo(100);
+    }
+
+    @Test
     void aHolidayAheadBringsWhatPastHolidaysBrought() {
         LocalDate week = LocalDate.of(2026, 12, 21); // Monday
         OpenDays.Shape shape = OpenDays.shape(shopWithHolidays(Set.of(week.plusDays(3))));

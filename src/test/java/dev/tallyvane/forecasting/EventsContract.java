@@ -94,6 +94,8 @@ abstract class EventsContract {
     EventScores scores;
     @Autowired
     dev.tallyvane.accuracy.AccuracyReports accuracy;
+    @Autowired
+    SettingsService settings;
 
     final String code = "E" + UUID.randomUUID().toString().substring(0, 7).toUpperCase(Locale.ROOT);
     final Random random = new Random(3);
@@ -225,5 +227,41 @@ abstract class EventsContract {
         assertThat(call(get("/api/v1/locations/{c}/events", code), 200).size()).isEqualTo(1);
         assertThat(audit.latest(50)).anySatisfy(e -> assertThat(e.getAction() + " " + e.getDetail())
                 .isEqualTo("EVENT_REMOVED " + code + ": Street works, " + WORKS));
+    }
+
+    /** Forecast by the day (not the default), the same events change the days they fall on. */
+    @Test
+    void forecastByTheDayTheEventsChangeTheirDays() throws Exception {
+        String daily = "D" + code.substring(1);
+        Location stall = locations.create(new LocationDetails(daily, "Market Square Stall", "Europe/Berlin", "EUR",
+                null, null));
+        settings.save(stall.getId(), MEASURE, new SettingsService.SettingsInput("day", 14, null, null, null, null), "test");
+        List<FigureInput> figures = days(LocalDate.of(2026, 6, 1), THIS_WEEK).stream().map(f -> new FigureInput(
+                f.index(), daily, f.measure(), f.granularity(), f.periodStart(), f.amount())).toList();
+        intake.record(figures, Submitter.api("token:till", null), "item");
+        await().atMost(Duration.ofSeconds(60)).until(() -> queue.status(stall.getId()).idle()
+                && refits.current(stall.getId(), MEASURE).isPresent());
+        call(post("/api/v1/locations/{c}/events", daily).contentType(MediaType.APPLICATION_JSON)
+                .content("{\"name\":\"Market day\",\"firstDay\":\"" + FIRST_MARKET + "\",\"repeats\":\"fortnightly\"}"),
+                201);
+        call(post("/api/v1/locations/{c}/events", daily).contentType(MediaType.APPLICATION_JSON)
+                .content("{\"name\":\"Street works\",\"firstDay\":\"" + WORKS + "\",\"effectPercent\":-50}"), 201);
+        await().atMost(Duration.ofSeconds(60)).until(() -> queue.status(stall.getId()).idle());
+        assertThat(refits.refit(stall.getId(), MEASURE, "test").issuedId()).isNotNull();
+        IssuedForecast f = refits.current(stall.getId(), MEASURE).orElseThrow();
+        assertThat(f.granularity()).isEqualTo("DAY");
+        java.util.Map<LocalDate, IssuedForecast.Point> byDay = new java.util.HashMap<>();
+        f.points().forEach(p -> byDay.put(p.period(), p));
+        IssuedForecast.Point market = byDay.get(MARKET_THIS_WEEK);
+        IssuedForecast.Point usualThursday = byDay.get(MARKET_THIS_WEEK.plusWeeks(1));
+        IssuedForecast.Point works = byDay.get(WORKS);
+        // the market Thursday about 30% above the Thursday after it; the works Tuesday half of a usual day
+        assertThat(market.forecast() / usualThursday.forecast()).isCloseTo(1.3, within(0.08));
+        assertThat(market.usualForecast()).as("kept without the event, for its value added").isNotNull();
+        assertThat(usualThursday.usualForecast()).isNull();
+        assertThat(works.forecast() / works.usualForecast()).isCloseTo(0.5, within(1e-9));
+        assertThat(f.notesJson()).contains("days ahead fall on events: forecast as a usual day of the weekday times "
+                + "the event's effect").containsPattern("'Market day': \\+(2[2-9]|3[0-8])% on a usual day")
+                .contains("'Street works': -50% on a usual day, as stated by the owner.");
     }
 }

@@ -147,6 +147,14 @@ public final class OpenDays {
             return new Shape(weekdays, List.of(), calendar);
         }
 
+        /**
+         * The same shape without the holidays' effect, for a series forecast by the day: its own
+         * candidates model holidays (the calendar regression's holiday term), events are left to the shape.
+         */
+        public Shape withoutHolidays() {
+            return new Shape(weekdays, effects.stream().filter(e -> !e.name().equals(HOLIDAYS)).toList(), calendar);
+        }
+
         /** The holidays' effect, if the calendar has holidays. */
         public java.util.Optional<DayEffect> holidays() {
             return effects.stream().filter(e -> e.name().equals(HOLIDAYS)).findFirst();
@@ -166,11 +174,14 @@ public final class OpenDays {
 
         /**
          * The share s(P) of a usual period's sales expected in the period starting {@code start}
-         * (1 for a period without closed days or holidays, and for days).
+         * (1 for a period without closed days or holidays). For a day it is the product of the factors
+         * of the effects it is a day of (a usual day of its weekday brings 1); a closed day counts 1
+         * here, because a daily forecast leaves closed days to the engine (forecast 0, never fitted).
          */
         public double share(Granularity granularity, LocalDate start) {
             if (granularity == Granularity.DAY) {
-                return 1;
+                double usual = weekdays[start.getDayOfWeek().getValue() - 1];
+                return calendar.isClosed(start) || !(usual > 0) ? 1 : dayWeight(start) / usual;
             }
             double all = 0;
             double expected = 0;
@@ -184,7 +195,8 @@ public final class OpenDays {
         /**
          * The series read as usual periods: each past period whose calendar share s(P) is not 1 divided by
          * it, or left out (missing) when less than {@value OpenDays#MIN_SHARE} of a usual period was
-         * expected (too little to read a usual period from). A daily series is returned as it is.
+         * expected (too little to read a usual period from). A daily series' event days are read as
+         * usual days alike.
          */
         public Adjusted adjust(Series series) {
             double[] y = series.values();
