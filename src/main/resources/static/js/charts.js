@@ -15,7 +15,8 @@
     }
     var src = (forecastEl || accuracyEl || horizonEl).getAttribute('data-src');
     var lang = document.documentElement.lang || navigator.language;
-    var ink = '#1d2430', accent = '#1f5f8b', fittedColour = '#7a8595', earlierColour = '#a3271f';
+    var ink = '#1d2430', accent = '#1f5f8b', fittedColour = '#7a8595', earlierColour = '#a3271f',
+        calendarColour = '#8a5a00';
 
     function money(currency) {
         var f;
@@ -70,7 +71,11 @@
                 line('Fitted', fittedColour, 1.5, [4, 3]),
                 line('Earlier forecast', earlierColour, 1.5, [2, 2]),
                 line('Forecast', accent, 2.5),
-                bound('80% low'), bound('80% high'), bound('95% low'), bound('95% high')
+                bound('80% low'), bound('80% high'), bound('95% low'), bound('95% high'),
+                // periods holding events, holidays or closed days: a marker on the line, named in the read-out
+                {label: 'Calendar', stroke: calendarColour, width: 0, paths: function () { return null; },
+                    points: {show: true, size: 11, width: 2, stroke: calendarColour, fill: '#f6d98b'},
+                    value: function (u, v, si, idx) { return idx == null || !c.calendar[idx] ? '–' : c.calendar[idx]; }}
             ],
             bands: [
                 {series: [8, 7], fill: 'rgba(31,95,139,0.10)'},
@@ -78,7 +83,12 @@
             ],
             axes: [{}, {values: function (u, ticks) { return ticks.map(function (t) { return fmt(u, t); }); }, size: 80}]
         };
-        var data = [c.x, c.actual, c.fitted, c.earlier, c.forecast, c.lo80, c.hi80, c.lo95, c.hi95];
+        var marks = c.x.map(function (t, i) {
+            if (!c.calendar || !c.calendar[i]) { return null; }
+            var v = c.actual[i] != null ? c.actual[i] : c.forecast[i] != null ? c.forecast[i] : c.fitted[i];
+            return v == null ? 0 : v;
+        });
+        var data = [c.x, c.actual, c.fitted, c.earlier, c.forecast, c.lo80, c.hi80, c.lo95, c.hi95, marks];
         var u = new uPlot(opts, data, forecastEl);
         u.setSeries(3, {show: false});
         keyboard(forecastEl, u);
@@ -88,6 +98,7 @@
         if (fitted) { fitted.addEventListener('change', function () { u.setSeries(2, {show: fitted.checked}); }); }
         if (earlier) { earlier.addEventListener('change', function () { u.setSeries(3, {show: earlier.checked}); }); }
         forecastEl.setAttribute('data-points', String(c.x.length));
+        forecastEl.setAttribute('data-marks', String(marks.filter(function (m) { return m != null; }).length));
         forecastEl.setAttribute('data-ready', 'true');
     }
 

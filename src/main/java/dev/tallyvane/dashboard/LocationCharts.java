@@ -6,7 +6,10 @@ import dev.tallyvane.accuracy.AccuracyReports.Rolling;
 import dev.tallyvane.accuracy.AccuracyReports.StepOne;
 import dev.tallyvane.forecasting.FittedHistory;
 import dev.tallyvane.forecasting.IssuedForecast;
+import dev.tallyvane.forecasting.LocationEvents;
 import dev.tallyvane.forecasting.RefitService;
+import dev.tallyvane.forecasting.SettingsService;
+import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.intake.FigureRules;
 import dev.tallyvane.location.Location;
 import java.time.LocalDate;
@@ -30,19 +33,25 @@ public class LocationCharts {
 
     private final RefitService refits;
     private final AccuracyReports accuracy;
+    private final LocationEvents events;
+    private final SettingsService settings;
 
-    LocationCharts(RefitService refits, AccuracyReports accuracy) {
+    LocationCharts(RefitService refits, AccuracyReports accuracy, LocationEvents events, SettingsService settings) {
         this.refits = refits;
         this.accuracy = accuracy;
+        this.events = events;
+        this.settings = settings;
     }
 
     /**
      * The forecast chart: actuals and fitted values of the newest fit, the forecast with 80% and 95%
-     * bands, and earlier one-step-ahead forecasts of periods that have since happened.
+     * bands, and earlier one-step-ahead forecasts of periods that have since happened; {@code calendar}
+     * names per period what the calendar holds in it (events, "holiday", "closed"), empty when nothing,
+     * so the chart can mark those periods.
      */
     public record ForecastChart(String currency, String granularity, String model, List<LocalDate> periods,
             List<Long> x, List<Double> actual, List<Double> fitted, List<Double> earlier, List<Double> forecast,
-            List<Double> lo80, List<Double> hi80, List<Double> lo95, List<Double> hi95) {
+            List<Double> lo80, List<Double> hi80, List<Double> lo95, List<Double> hi95, List<String> calendar) {
     }
 
     /** Accuracy over time (rolling one-step-ahead MAPE and MAE) and by horizon step. */
@@ -95,7 +104,10 @@ public class LocationCharts {
         List<Double> hi80 = new ArrayList<>(n);
         List<Double> lo95 = new ArrayList<>(n);
         List<Double> hi95 = new ArrayList<>(n);
+        Map<LocalDate, String> marks = marks(location, Granularity.valueOf(f.granularity()), periods);
+        List<String> calendar = new ArrayList<>(n);
         for (LocalDate d : periods) {
+            calendar.add(marks.getOrDefault(d, ""));
             x.add(d.atStartOfDay().toEpochSecond(ZoneOffset.UTC));
             FittedHistory.Point h = past.get(d);
             actual.add(h == null ? null : h.actual());
@@ -110,7 +122,33 @@ public class LocationCharts {
             hi95.add(open ? p.hi95() : null);
         }
         return new ForecastChart(location.getCurrency(), f.granularity().toLowerCase(java.util.Locale.ROOT),
-                f.chosenName(), periods, x, actual, fitted, earlier, forecast, lo80, hi80, lo95, hi95);
+                f.chosenName(), periods, x, actual, fitted, earlier, forecast, lo80, hi80, lo95, hi95, calendar);
+    }
+
+    /** Per period on the axis, the names of what the calendar holds in it: its events, then holiday, then closed. */
+    private Map<LocalDate, String> marks(Location location, Granularity g, List<LocalDate> periods) {
+        Map<LocalDate, java.util.Set<String>> names = new java.util.TreeMap<>();
+        if (periods.isEmpty()) {
+            return Map.of();
+        }
+        LocalDate first = periods.get(0);
+        LocalDate last = g.periodEnd(periods.get(periods.size() - 1));
+        for (LocationEvents.Event e : events.of(location.getId())) {
+            for (LocalDate day : e.days(last)) {
+                if (!day.isBefore(first)) {
+                    names.computeIfAbsent(g.periodStart(day), k -> new java.util.LinkedHashSet<>()).add(e.name());
+                }
+            }
+        }
+        for (SettingsService.CalendarEntry c : settings.calendar(location.getId())) {
+            if (!c.day().isBefore(first) && !c.day().isAfter(last)) {
+                names.computeIfAbsent(g.periodStart(c.day()), k -> new java.util.LinkedHashSet<>())
+                        .add(c.kind().toLowerCase(java.util.Locale.ROOT));
+            }
+        }
+        Map<LocalDate, String> out = new HashMap<>();
+        names.forEach((period, n) -> out.put(period, String.join(", ", n)));
+        return out;
     }
 
     private AccuracyChart accuracy(Location location, List<StepOne> errors) {

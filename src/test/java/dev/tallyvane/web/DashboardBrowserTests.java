@@ -233,6 +233,14 @@ class DashboardBrowserTests {
         assertThat(browser.await("#next-days-table tr[data-date='2026-12-11']", 10).getText()).contains("Street works");
         assertThat(browser.find("#forecast-notes").getText())
                 .contains("'Street works': -50% on a usual day, as stated by the owner.");
+        // the chart marks the week that holds the works (and the closed day entered above), named in its table
+        Awaitility.await().atMost(Duration.ofSeconds(10)).until(() -> "true".equals(
+                browser.find("#forecast-chart").getAttribute("data-ready")));
+        assertThat(Integer.parseInt(browser.find("#forecast-chart").getAttribute("data-marks"))).isPositive();
+        assertThat(((JavascriptExecutor) browser.driver()).executeScript(
+                "return Array.from(document.querySelectorAll('#forecast-chart-table tr')).filter(function (r) {"
+                + " return r.cells[0].textContent === '2026-12-07'; })[0].querySelector('.calendar-mark').textContent;"))
+                .isEqualTo("Street works, closed"); // the closed Thursday entered in the settings is in that week too
         ((JavascriptExecutor) browser.driver()).executeScript("document.getElementById('events').scrollIntoView()");
         browser.screenshot("events");
 
