@@ -54,8 +54,26 @@
         window.addEventListener('resize', function () { u.setSize({width: width(el), height: height}); });
     }
 
+    /** A phone-sized chart: fewer pixels per period, so it opens on the recent periods and the forecast. */
+    function narrow(el) { return width(el) < 640; }
+
+    /** Axis labels: compact amounts (12K) where space is short. */
+    function axisMoney(currency, compact) {
+        var f;
+        try {
+            f = new Intl.NumberFormat(navigator.language || lang, compact
+                ? {style: 'currency', currency: currency, notation: 'compact', maximumFractionDigits: 1}
+                : {style: 'currency', currency: currency, maximumFractionDigits: 0});
+        } catch (e) {
+            f = new Intl.NumberFormat(navigator.language || lang, {maximumFractionDigits: 0});
+        }
+        return function (u, ticks) { return ticks.map(function (t) { return f.format(t); }); };
+    }
+
     function drawForecast(c) {
         var fmt = money(c.currency);
+        var small = narrow(forecastEl);
+        var height = small ? 280 : 340;
         var line = function (label, colour, w, dash) {
             return {label: label, stroke: colour, width: w, dash: dash, value: fmt, spanGaps: false,
                 points: {show: c.x.length < 120}};
@@ -64,7 +82,7 @@
             return {label: label, stroke: 'rgba(31,95,139,0.35)', width: 1, value: fmt, points: {show: false}};
         };
         var opts = {
-            width: width(forecastEl), height: 340, tzDate: utc,
+            width: width(forecastEl), height: height, tzDate: utc,
             series: [
                 {label: 'Period', value: '{YYYY}-{MM}-{DD}'},
                 line('Actual', ink, 2),
@@ -81,7 +99,7 @@
                 {series: [8, 7], fill: 'rgba(31,95,139,0.10)'},
                 {series: [6, 5], fill: 'rgba(31,95,139,0.22)'}
             ],
-            axes: [{}, {values: function (u, ticks) { return ticks.map(function (t) { return fmt(u, t); }); }, size: 80}]
+            axes: [{}, {values: axisMoney(c.currency, small), size: small ? 56 : 80}]
         };
         var marks = c.x.map(function (t, i) {
             if (!c.calendar || !c.calendar[i]) { return null; }
@@ -92,7 +110,24 @@
         var u = new uPlot(opts, data, forecastEl);
         u.setSeries(3, {show: false});
         keyboard(forecastEl, u);
-        resizeWith(forecastEl, u, 340);
+        resizeWith(forecastEl, u, height);
+        // the forecast's part: from a little before the first forecast period (twice the periods ahead, at
+        // least 8) to the end; on a phone the chart opens on it, the whole history one tap away
+        var first = c.forecast.findIndex(function (v) { return v != null; });
+        var ahead = first < 0 ? 0 : c.x.length - first;
+        var from = first < 0 ? 0 : Math.max(0, first - Math.max(8, 2 * ahead));
+        var history = document.getElementById('show-history');
+        function view(all) {
+            var start = all ? 0 : from;
+            u.setScale('x', {min: c.x[start], max: c.x[c.x.length - 1]});
+            forecastEl.setAttribute('data-view', all ? 'all' : 'recent');
+            forecastEl.setAttribute('data-x-from', String(start));
+        }
+        if (history) {
+            history.checked = !small;
+            history.addEventListener('change', function () { view(history.checked); });
+        }
+        view(!small || from === 0);
         var fitted = document.getElementById('show-fitted');
         var earlier = document.getElementById('show-earlier');
         if (fitted) { fitted.addEventListener('change', function () { u.setSeries(2, {show: fitted.checked}); }); }

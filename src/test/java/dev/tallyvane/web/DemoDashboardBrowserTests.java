@@ -118,6 +118,25 @@ class DemoDashboardBrowserTests {
         assertThat(overflow.intValue()).isLessThanOrEqualTo(0);
         browser.screenshot("overview-phone");
 
+        // a phone: the location page's chart opens on the recent weeks and the forecast, readable; the whole
+        // history is one tap away; nothing scrolls sideways
+        browser.go("/locations/HARBOUR");
+        WebElement small = browser.await("#forecast-chart[data-ready=true]", 20);
+        assertThat(small.getAttribute("data-view")).isEqualTo("recent");
+        int points = Integer.parseInt(small.getAttribute("data-points"));
+        int from = Integer.parseInt(small.getAttribute("data-x-from"));
+        // the demo forecasts 8 weeks ahead: the view holds the 16 weeks before them and those 8
+        assertThat(points - from).isBetween(16, 40);
+        Number pageOverflow = (Number) ((org.openqa.selenium.JavascriptExecutor) browser.driver()).executeScript(
+                "return document.documentElement.scrollWidth - document.documentElement.clientWidth");
+        assertThat(pageOverflow.intValue()).isLessThanOrEqualTo(0);
+        ((org.openqa.selenium.JavascriptExecutor) browser.driver()).executeScript(
+                "document.getElementById('forecast-chart').scrollIntoView()");
+        browser.screenshot("location-phone");
+        browser.find("#show-history").click();
+        assertThat(small.getAttribute("data-view")).isEqualTo("all");
+        assertThat(small.getAttribute("data-x-from")).isEqualTo("0");
+
         assertThat(browser.consoleErrors()).as("no script errors or CSP violations").isEmpty();
     }
 
