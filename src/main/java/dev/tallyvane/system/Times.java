@@ -38,6 +38,16 @@ public class Times {
         return format(instant, null, SECONDS);
     }
 
+    /**
+     * A date as its reader writes dates: the medium form of the request's locale ("Dec 7, 2026",
+     * "7 Dec 2026", "07.12.2026"); pages put it in {@code <time datetime="2026-12-07">}, so the ISO
+     * form stays in the markup for tools and tests. Empty for no date.
+     */
+    public String day(java.time.LocalDate date) {
+        return date == null ? "" : java.time.format.DateTimeFormatter.ofLocalizedDate(java.time.format.FormatStyle.MEDIUM)
+                .withLocale(org.springframework.context.i18n.LocaleContextHolder.getLocale()).format(date);
+    }
+
     /** The day of the week of a date in the reader's language, e.g. "Monday" or "Montag". */
     public String weekday(java.time.LocalDate date) {
         return date.getDayOfWeek().getDisplayName(java.time.format.TextStyle.FULL,

@@ -140,6 +140,19 @@ class OverviewIntegrationTests {
         assertThat(html).contains(expected);
     }
 
+    @Test
+    void datesAreWrittenAsTheReaderWritesThem() throws Exception {
+        java.time.LocalDate period = next.of(FigureRules.DEFAULT_MEASURE).values().iterator().next().period();
+        String german = mvc.perform(get("/").with(viewer).header("Accept-Language", "de-DE")).andReturn().getResponse()
+                .getContentAsString();
+        // day.month.year in German, day month year in British English (common practice for both)
+        assertThat(german).contains("from " + String.format("%02d.%02d.%d", period.getDayOfMonth(),
+                period.getMonthValue(), period.getYear()));
+        String british = mvc.perform(get("/").with(viewer).header("Accept-Language", "en-GB")).andReturn().getResponse()
+                .getContentAsString();
+        assertThat(british).containsPattern("from " + period.getDayOfMonth() + " [A-Z][a-z]{2,3} " + period.getYear());
+    }
+
     private static String format(double v) {
         java.text.NumberFormat f = java.text.NumberFormat.getCurrencyInstance(Locale.UK);
         f.setCurrency(java.util.Currency.getInstance("EUR"));

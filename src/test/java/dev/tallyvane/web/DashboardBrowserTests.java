@@ -146,7 +146,7 @@ class DashboardBrowserTests {
         // the flag says what the service did and what the owner can do, with the one-click mark
         assertThat(browser.find("#flags .flag-did").getText()).isNotBlank();
         assertThat(browser.find("#flags .flag-can").getText()).startsWith("If sales moved for good, mark a real change from 2026-11-09.");
-        assertThat(browser.find("#flags .flag-actions").getText()).contains("A real change from 2026-11-09");
+        assertThat(browser.find("#flags .flag-actions").getText()).contains("A real change from 9 Nov 2026"); // the reader's locale (en-GB in the test browser)
         browser.find("#flags input[name=note]").sendKeys("new office block opened nearby");
         browser.find("#flags select[name=snoozeDays] option[value='7']").click();
         browser.find("#flags form[action$='/acknowledge'] button[type=submit]").click();
@@ -204,7 +204,9 @@ class DashboardBrowserTests {
                 .contains("closed");
         assertThat(browser.find("#next-days-table tr[data-date='2026-12-12']").getText()).contains("Saturday")
                 .contains("€").doesNotContain("closed");
-        assertThat(days.getText()).contains("2026-12-07: €");
+        assertThat(days.getText()).contains("7 Dec 2026: €"); // dates in the reader's locale (en-GB here)
+        assertThat(browser.find("#next-days-table tr[data-date='2026-12-09'] time").getAttribute("datetime"))
+                .isEqualTo("2026-12-09");
         assertThat(browser.find("#next-days-note").getText()).contains("add up to its forecast");
         assertThat(browser.find("a[href='/exports/days?format=csv&location=QUAY']").isDisplayed()).isTrue();
         ((JavascriptExecutor) browser.driver()).executeScript("document.getElementById('next-days').scrollIntoView()");
@@ -238,8 +240,8 @@ class DashboardBrowserTests {
                 browser.find("#forecast-chart").getAttribute("data-ready")));
         assertThat(Integer.parseInt(browser.find("#forecast-chart").getAttribute("data-marks"))).isPositive();
         assertThat(((JavascriptExecutor) browser.driver()).executeScript(
-                "return Array.from(document.querySelectorAll('#forecast-chart-table tr')).filter(function (r) {"
-                + " return r.cells[0].textContent === '2026-12-07'; })[0].querySelector('.calendar-mark').textContent;"))
+                "return Array.from(document.querySelectorAll('#forecast-chart-table tbody tr')).filter(function (r) {"
+                + " return r.cells[0].querySelector('time').getAttribute('datetime') === '2026-12-07'; })[0].querySelector('.calendar-mark').textContent;"))
                 .isEqualTo("Street works, closed"); // the closed Thursday entered in the settings is in that week too
         ((JavascriptExecutor) browser.driver()).executeScript("document.getElementById('events').scrollIntoView()");
         browser.screenshot("events");
