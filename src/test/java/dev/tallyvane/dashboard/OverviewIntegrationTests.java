@@ -141,7 +141,7 @@ class OverviewIntegrationTests {
     }
 
     @Test
-    void datesAreWrittenAsTheReaderWritesThem() throws Exception {
+    void datesAndWordsAreTheReaders() throws Exception {
         java.time.LocalDate period = next.of(FigureRules.DEFAULT_MEASURE).values().iterator().next().period();
         String german = mvc.perform(get("/").with(viewer).header("Accept-Language", "de-DE")).andReturn().getResponse()
                 .getContentAsString();
@@ -151,6 +151,9 @@ class OverviewIntegrationTests {
         String british = mvc.perform(get("/").with(viewer).header("Accept-Language", "en-GB")).andReturn().getResponse()
                 .getContentAsString();
         assertThat(british).containsPattern("from " + period.getDayOfMonth() + " [A-Z][a-z]{2,3} " + period.getYear());
+        // the page's own words come from the bundle of the reader's language
+        assertThat(german).contains("<h1>Standorte</h1>").contains("Fehlerverlauf").contains("noch keine Prognose");
+        assertThat(british).contains("<h1>Locations</h1>").contains("Error trend").contains("no forecast yet");
     }
 
     private static String format(double v) {
