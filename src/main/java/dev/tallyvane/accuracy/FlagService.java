@@ -148,8 +148,7 @@ public class FlagService {
                     t.change() < 0 ? "lower" : "higher", t.startAfter() ? "the forecast now starts there"
                             : "the whole history is kept");
         } else if (shift.isPresent()) {
-            did = "This is taken as a shift from " + shift.get().from() + ": once " + dev.tallyvane.engine.ShiftTrial.MIN_AFTER + " complete " + unit + "s follow it, "
-                    + "each re-fit tries starting the models there and keeps that only if it forecasts better out of sample.";
+            did = "This is taken as a shift from " + shift.get().from() + ": " + LevelShifts.untilTried(unit);
         } else {
             did = "Each re-fit compares every model again on the newest figures and keeps the one that forecasts best "
                     + "out of sample.";

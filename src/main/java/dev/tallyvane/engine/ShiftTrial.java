@@ -60,7 +60,7 @@ public final class ShiftTrial {
 
         /** The relative change of the error when starting after the shift (negative = better). */
         public double change() {
-            return fullMae > 0 ? afterMae / fullMae - 1 : 0;
+            return relativeChange(fullMae, afterMae);
         }
 
         /** In plain words, for the forecast's notes and the flag's advice. */
@@ -118,6 +118,11 @@ public final class ShiftTrial {
             return Optional.empty();
         }
         return Optional.of(new Outcome(series.periodAt(shift), origins, pairs, fullSum / pairs, afterSum / pairs));
+    }
+
+    /** MAE_after / MAE_full − 1: the relative change of the error when starting after the shift (0 without error). */
+    public static double relativeChange(double fullMae, double afterMae) {
+        return fullMae > 0 ? afterMae / fullMae - 1 : 0;
     }
 
     /** Periods {@code from} (inclusive) to {@code to} (exclusive) as a series of their own. */

@@ -55,8 +55,14 @@ public class LevelShifts {
 
         /** The relative change of the error when starting after the shift (negative = better). */
         public double change() {
-            return fullMae > 0 ? afterMae / fullMae - 1 : 0;
+            return ShiftTrial.relativeChange(fullMae, afterMae);
         }
+    }
+
+    /** What the re-fits do with a shift while too few periods follow it, in plain words ("once 6 complete weeks …"). */
+    public static String untilTried(String unit) {
+        return "once " + ShiftTrial.MIN_AFTER + " complete " + unit + "s follow it, each re-fit tries starting the models "
+                + "there and keeps that only if it forecasts better out of sample.";
     }
 
     @Transactional(readOnly = true)

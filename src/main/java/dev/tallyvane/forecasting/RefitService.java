@@ -156,9 +156,8 @@ public class RefitService {
                     input = ShiftTrial.slice(input, at, input.length());
                 }
             } else if (at > 0 && at < input.length()) {
-                shiftNote = "The drift watch found a shift in sales from " + shift.get().from() + ": once "
-                        + ShiftTrial.MIN_AFTER + " complete " + unit + "s follow it, each re-fit tries starting the "
-                        + "models there and keeps that only if it forecasts better out of sample.";
+                shiftNote = "The drift watch found a shift in sales from " + shift.get().from() + ": "
+                        + LevelShifts.untilTried(unit);
             }
         }
         ForecastResult result;
