@@ -15,6 +15,21 @@
     }
     var src = (forecastEl || accuracyEl || horizonEl).getAttribute('data-src');
     var lang = document.documentElement.lang || navigator.language;
+    // the words come from the page (its message bundle), so the charts speak the reader's language
+    var words = {};
+    document.querySelectorAll('#chart-words [data-k]').forEach(function (el) {
+        words[el.getAttribute('data-k')] = el.textContent;
+    });
+    function w(k, fallback) { return words[k] || fallback; }
+    var dayFormat;
+    try {
+        dayFormat = new Intl.DateTimeFormat(lang, {dateStyle: 'medium', timeZone: 'UTC'});
+    } catch (e) {
+        dayFormat = null;
+    }
+    function day(u, ts) {
+        return ts == null ? '–' : dayFormat ? dayFormat.format(new Date(ts * 1e3)) : new Date(ts * 1e3).toISOString().slice(0, 10);
+    }
     var ink = '#1d2430', accent = '#1f5f8b', fittedColour = '#7a8595', earlierColour = '#a3271f',
         calendarColour = '#8a5a00';
 
@@ -84,14 +99,14 @@
         var opts = {
             width: width(forecastEl), height: height, tzDate: utc,
             series: [
-                {label: 'Period', value: '{YYYY}-{MM}-{DD}'},
-                line('Actual', ink, 2),
-                line('Fitted', fittedColour, 1.5, [4, 3]),
-                line('Earlier forecast', earlierColour, 1.5, [2, 2]),
-                line('Forecast', accent, 2.5),
-                bound('80% low'), bound('80% high'), bound('95% low'), bound('95% high'),
+                {label: w('period', 'Period'), value: day},
+                line(w('actual', 'Actual'), ink, 2),
+                line(w('fitted', 'Fitted'), fittedColour, 1.5, [4, 3]),
+                line(w('earlier', 'Earlier forecast'), earlierColour, 1.5, [2, 2]),
+                line(w('forecast', 'Forecast'), accent, 2.5),
+                bound(w('lo80', '80% low')), bound(w('hi80', '80% high')), bound(w('lo95', '95% low')), bound(w('hi95', '95% high')),
                 // periods holding events, holidays or closed days: a marker on the line, named in the read-out
-                {label: 'Calendar', stroke: calendarColour, width: 0, paths: function () { return null; },
+                {label: w('calendar', 'Calendar'), stroke: calendarColour, width: 0, paths: function () { return null; },
                     points: {show: true, size: 11, width: 2, stroke: calendarColour, fill: '#f6d98b'},
                     value: function (u, v, si, idx) { return idx == null || !c.calendar[idx] ? '–' : c.calendar[idx]; }}
             ],
@@ -141,8 +156,8 @@
         var opts = {
             width: width(accuracyEl), height: 200, tzDate: utc,
             series: [
-                {label: 'Period', value: '{YYYY}-{MM}-{DD}'},
-                {label: 'MAPE (rolling)', stroke: accent, width: 2, value: percent}
+                {label: w('period', 'Period'), value: day},
+                {label: w('mapeRolling', 'MAPE (rolling)'), stroke: accent, width: 2, value: percent}
             ],
             axes: [{}, {values: function (u, ticks) { return ticks.map(function (t) { return t + '%'; }); }}]
         };
@@ -161,9 +176,9 @@
             width: width(horizonEl), height: 200,
             scales: {x: {time: false}},
             series: [
-                {label: 'Periods ahead', value: function (u, v) { return v == null ? '–' : String(v); }},
+                {label: w('ahead', 'Periods ahead'), value: function (u, v) { return v == null ? '–' : String(v); }},
                 {label: 'MAPE', stroke: accent, width: 2, value: percent},
-                {label: 'Inside 80% range', stroke: fittedColour, width: 1.5, dash: [4, 3], value: percent}
+                {label: w('inside80', 'Inside 80% range'), stroke: fittedColour, width: 1.5, dash: [4, 3], value: percent}
             ],
             axes: [{values: function (u, ticks) { return ticks.map(function (t) { return Number.isInteger(t) ? t : ''; }); }},
                 {values: function (u, ticks) { return ticks.map(function (t) { return t + '%'; }); }}]
@@ -189,7 +204,7 @@
         .catch(function (e) {
             [forecastEl, accuracyEl, horizonEl].forEach(function (el) {
                 if (el) {
-                    el.textContent = 'The chart could not be loaded (' + e.message + '); the table below has the numbers.';
+                    el.textContent = w('failed', 'The chart could not be loaded ({0}); the table below has the numbers.').replace('{0}', e.message);
                     el.setAttribute('data-ready', 'error');
                 }
             });

@@ -13,17 +13,19 @@
     var BUSY_MS = 3000;
     var IDLE_MS = 10000;
 
+    // the same form as the page's own: the date as the reader writes dates, the time on the 24-hour clock,
+    // the location's zone named
     function when(iso) {
         if (!iso) {
             return '';
         }
-        var options = {year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit',
-            hour12: false};
-        if (zone) {
-            options.timeZone = zone;
-        }
+        var lang = document.documentElement.lang || navigator.language;
         try {
-            return new Intl.DateTimeFormat('sv-SE', options).format(new Date(iso)) + (zone ? ' ' + zone : '');
+            var d = new Date(iso);
+            var date = new Intl.DateTimeFormat(lang, {dateStyle: 'medium', timeZone: zone || undefined}).format(d);
+            var time = new Intl.DateTimeFormat('en-GB', {hour: '2-digit', minute: '2-digit', hourCycle: 'h23',
+                timeZone: zone || undefined}).format(d);
+            return date + ' ' + time + (zone ? ' ' + zone : '');
         } catch (e) {
             return iso;
         }

@@ -11,9 +11,12 @@
         var button = form.querySelector('button[type=submit]');
         var input = document.getElementById('file');
         var limit = Number(form.getAttribute('data-max-bytes') || 0);
+        // the words come from the page (its message bundle): {0} stands for a number
+        function say(name, n) {
+            return (form.getAttribute('data-' + name) || '').replace('{0}', n == null ? '' : String(n));
+        }
         if (limit && input.files.length && input.files[0].size > limit) {
-            status.textContent = 'The file is larger than ' + Math.round(limit / 1048576)
-                + ' MB. Split it into smaller files (for example one per month).';
+            status.textContent = say('too-large', Math.round(limit / 1048576));
             return;
         }
         var xhr = new XMLHttpRequest();
@@ -22,11 +25,11 @@
         xhr.upload.addEventListener('progress', function (e) {
             if (e.lengthComputable) {
                 bar.value = Math.round(100 * e.loaded / e.total);
-                status.textContent = 'Sending… ' + bar.value + '%';
+                status.textContent = say('sending', bar.value);
             }
         });
         xhr.upload.addEventListener('load', function () {
-            status.textContent = 'Reading the file…';
+            status.textContent = say('reading');
         });
         xhr.addEventListener('load', function () {
             if (xhr.responseURL && xhr.responseURL.indexOf('/uploads/') > 0 && xhr.status === 200) {
@@ -38,7 +41,7 @@
             }
         });
         xhr.addEventListener('error', function () {
-            status.textContent = 'The upload failed: check the connection and try again.';
+            status.textContent = say('failed');
             button.disabled = false;
         });
         xhr.open('POST', form.action);

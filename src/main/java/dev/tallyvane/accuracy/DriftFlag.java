@@ -47,13 +47,16 @@ public record DriftFlag(long id, long locationId, String location, String measur
                 acknowledgedAt, acknowledgedBy, snoozedUntil, note, signals, a);
     }
 
-    /** A short label in plain words, for a chip beside the location (the reason says the rest). */
-    public String label() {
-        String side = value >= 0 ? "above" : "below";
+    /**
+     * The message key of a short label in plain words, for a chip beside the location (the reason
+     * says the rest): {@code flag.runningAbove}, {@code flag.shiftedBelow}, {@code flag.lessAccurate}….
+     */
+    public String labelKey() {
+        String side = value >= 0 ? "Above" : "Below";
         return switch (signal) {
-            case TRIGG, CUMULATIVE -> "sales keep running " + side + " forecast";
-            case CUSUM -> "sales have shifted " + side + " forecast";
-            case ERROR_RATIO -> "forecasts less accurate than expected";
+            case TRIGG, CUMULATIVE -> "flag.running" + side;
+            case CUSUM -> "flag.shifted" + side;
+            case ERROR_RATIO -> "flag.lessAccurate";
         };
     }
 }

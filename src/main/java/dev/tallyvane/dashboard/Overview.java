@@ -110,40 +110,18 @@ public class Overview {
         return fallback;
     }
 
-    /** Which locations to show. */
+    /** Which locations to show; the words are the bundles' {@code overview.show.<NAME>}. */
     public enum Show {
-        ALL("all locations"), FLAGGED("with an open drift flag"), NO_FORECAST("without a forecast yet"),
-        ACTIVE("active only"), CLOSED("closed only");
-
-        private final String label;
-
-        Show(String label) {
-            this.label = label;
-        }
-
-        public String label() {
-            return label;
-        }
+        ALL, FLAGGED, NO_FORECAST, ACTIVE, CLOSED;
 
         public String param() {
             return Overview.param(this);
         }
     }
 
-    /** Sortable columns. */
+    /** Sortable columns; the headings are the bundles' {@code overview.sort.<NAME>}. */
     public enum Sort {
-        CODE("Location"), NAME("Name"), ERROR("Last period: actual vs forecast"),
-        NEXT("Next period forecast (80% range)"), MODEL("Model"), FLAGS("Drift");
-
-        private final String label;
-
-        Sort(String label) {
-            this.label = label;
-        }
-
-        public String label() {
-            return label;
-        }
+        CODE, NAME, ERROR, NEXT, MODEL, FLAGS;
 
         public boolean numeric() {
             return this == ERROR || this == NEXT;
@@ -170,21 +148,20 @@ public class Overview {
      *
      * @param trendPoints SVG polyline points of the recent absolute % errors in an 80 × 20 box (higher
      *                    = worse), empty with fewer than two
-     * @param trendText   the same errors in words, for screen readers and the tooltip
-     * @param flagLabels  each open flag's signal in words, in the order of {@code flags}
+     * @param trendValues the same errors as numbers ("4.1%, 7.9%"), which the page puts in words for
+     *                    screen readers and the tooltip
      */
     public record Row(Location location, Glance glance, Next next, List<DriftFlag> flags, String trendPoints,
-            String trendText, List<String> flagLabels) {
+            String trendValues) {
 
         static Row of(Location location, Glance glance, Next next, List<DriftFlag> flags) {
             String points = glance == null || glance.recentApe().length < 2 ? ""
                     : Sparkline.points(glance.recentApe(), 80, 20);
             String text = glance == null || glance.recentApe().length == 0 ? ""
-                    : "Recent absolute errors, oldest first: " + java.util.Arrays.stream(glance.recentApe())
+                    : java.util.Arrays.stream(glance.recentApe())
                             .mapToObj(v -> Double.isNaN(v) ? "n/a" : String.format(Locale.ROOT, "%.1f%%", v))
                             .collect(Collectors.joining(", "));
-            return new Row(location, glance, next, List.copyOf(flags), points, text, flags.stream()
-                    .map(DriftFlag::label).toList());
+            return new Row(location, glance, next, List.copyOf(flags), points, text);
         }
 
         /** Absolute error of the last scored period in percent of its actual, or NaN. */

@@ -14,8 +14,8 @@ import org.springframework.stereotype.Component;
 @Component("times")
 public class Times {
 
-    private static final DateTimeFormatter MINUTES = DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm", Locale.ROOT);
-    private static final DateTimeFormatter SECONDS = DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm:ss", Locale.ROOT);
+    private static final DateTimeFormatter MINUTES = DateTimeFormatter.ofPattern("HH:mm", Locale.ROOT);
+    private static final DateTimeFormatter SECONDS = DateTimeFormatter.ofPattern("HH:mm:ss", Locale.ROOT);
 
     private final ZoneId chain;
 
@@ -23,7 +23,10 @@ public class Times {
         this.chain = ZoneId.of(properties.defaults().timeZone());
     }
 
-    /** "2026-12-03 09:30 Europe/Berlin" in the given zone (the chain's when null); empty for no moment. */
+    /**
+     * "3 Dec 2026 09:30 Europe/Berlin" (the date as the reader writes dates, see {@link #day}; the time
+     * on the 24-hour clock) in the given zone (the chain's when null); empty for no moment.
+     */
     public String at(Instant instant, String zone) {
         return format(instant, zone, MINUTES);
     }
@@ -59,6 +62,7 @@ public class Times {
             return "";
         }
         ZoneId z = zone == null ? chain : ZoneId.of(zone);
-        return f.format(instant.atZone(z)) + " " + z.getId();
+        java.time.ZonedDateTime t = instant.atZone(z);
+        return day(t.toLocalDate()) + " " + f.format(t) + " " + z.getId();
     }
 }

@@ -50,13 +50,33 @@ class MessageBundlesTests {
         assertThat(Glossary.keyOf("ERROR_RATIO")).isEqualTo("errorRatio");
     }
 
+    /**
+     * A message with arguments goes through {@link java.text.MessageFormat}, where a lone apostrophe
+     * starts a quoted part and swallows the placeholders after it: such messages write it twice.
+     */
+    @Test
+    void messagesWithArgumentsDoubleTheirApostrophes() throws IOException {
+        for (String name : BUNDLES) {
+            Properties p = load(name);
+            for (String k : p.stringPropertyNames()) {
+                String v = p.getProperty(k);
+                if (v.matches("(?s).*\\{\\d.*")) {
+                    assertThat(v.replace("''", "")).as(name + " " + k).doesNotContain("'");
+                    assertThat(new java.text.MessageFormat(v).format(new Object[] {1, "b", "c", "d"})).as(name + " " + k)
+                            .doesNotContain("{0").doesNotContain("{1");
+                }
+            }
+        }
+    }
+
     @Test
     void theGermanBundleIsReallyGerman() throws IOException {
         Properties de = load("messages_de.properties");
         Properties en = load("messages.properties");
         long same = en.stringPropertyNames().stream().filter(k -> en.getProperty(k).equals(de.getProperty(k))).count();
-        // names of metrics (MASE, CUSUM…) and the product name are the same in both; the sentences are not
-        assertThat(same).isLessThan(12);
+        // names of metrics (MASE, CUSUM…), a few words (Status, Name) and the product name are the same in
+        // both; the sentences are not
+        assertThat(same).isLessThan(en.size() / 20);
         assertThat(de.getProperty("nav.locations")).isEqualTo("Standorte");
     }
 }

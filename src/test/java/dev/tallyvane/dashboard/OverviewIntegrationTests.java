@@ -146,7 +146,7 @@ class OverviewIntegrationTests {
         String german = mvc.perform(get("/").with(viewer).header("Accept-Language", "de-DE")).andReturn().getResponse()
                 .getContentAsString();
         // day.month.year in German, day month year in British English (common practice for both)
-        assertThat(german).contains("from " + String.format("%02d.%02d.%d", period.getDayOfMonth(),
+        assertThat(german).contains("ab " + String.format("%02d.%02d.%d", period.getDayOfMonth(),
                 period.getMonthValue(), period.getYear()));
         String british = mvc.perform(get("/").with(viewer).header("Accept-Language", "en-GB")).andReturn().getResponse()
                 .getContentAsString();

@@ -120,9 +120,12 @@ abstract class RealChangeContract {
         assertThat(Math.abs(now - 4900)).isLessThan(150);
         assertThat(Math.abs(before - 4900)).isLessThan(150);
 
-        String page = mvc.perform(get("/locations/{c}", code).with(user("olive").roles("OWNER")))
+        String page = mvc.perform(get("/locations/{c}", code).with(user("olive").roles("OWNER")).locale(java.util.Locale.UK))
                 .andExpect(status().isOk()).andReturn().getResponse().getContentAsString();
-        assertThat(page).contains("Marked as a real change in sales from " + CHANGE + " by token:change");
+        // the date as a British reader writes it
+        assertThat(page).contains("Marked as a real change in sales from " + java.time.format.DateTimeFormatter
+                .ofLocalizedDate(java.time.format.FormatStyle.MEDIUM).withLocale(java.util.Locale.UK).format(CHANGE)
+                + " by token:change");
 
         mvc.perform(delete("/api/v1/locations/{c}/real-change", code).header("Authorization", bearer))
                 .andExpect(status().isNoContent());

@@ -116,7 +116,7 @@ class FigureCorrectionIntegrationTests {
                 + "like ?", Long.class, code + " net_sales " + day + ": 101 → 1150.50%")).isEqualTo(1);
 
         String html = page(done);
-        assertThat(html).contains("Corrected\n            <span>net_sales " + day + ": 101 → 1,150.50</span>")
+        assertThat(html).contains("Corrected net_sales " + day + ": 101 → 1,150.50; the old value is kept as a revision")
                 .contains("<td>the till counted one sale twice</td>").contains("correction · bea");
         // the figures export carries the revision with its reason
         // (the body streams asynchronously: dispatch it, never read it before it is written)

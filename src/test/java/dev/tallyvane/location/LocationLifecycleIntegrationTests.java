@@ -119,9 +119,9 @@ class LocationLifecycleIntegrationTests {
         assertThat(audit("LOCATION_CLOSED")).containsExactly(code + ": closed on 2026-11-29");
         var outcome = refits.refit(l.getId(), FigureRules.DEFAULT_MEASURE, "test");
         assertThat(outcome.message()).isEqualTo("closed on 2026-11-29: no new forecasts");
-        String page = mvc.perform(get("/locations/{code}", code).with(owner)).andReturn().getResponse()
-                .getContentAsString();
-        assertThat(page).contains("closed on 2026-11-29").contains("no new forecasts are");
+        String page = mvc.perform(get("/locations/{code}", code).with(owner).locale(java.util.Locale.UK)).andReturn()
+                .getResponse().getContentAsString();
+        assertThat(page).contains("closed on 29 Nov 2026").contains("no new forecasts are");
 
         assertThat(change("Lake Kiosk West", "ACTIVE", null)).isEqualTo("saved");
         assertThat(locations.byCode(code).getClosedOn()).isNull();

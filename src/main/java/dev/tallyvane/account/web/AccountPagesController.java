@@ -7,6 +7,7 @@ import dev.tallyvane.account.UserService;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
 import dev.tallyvane.system.InvalidRequest;
+import dev.tallyvane.system.Messages;
 import java.security.Principal;
 import java.util.function.Function;
 import java.util.stream.Collectors;
@@ -26,8 +27,11 @@ class AccountPagesController {
     private final UserService users;
     private final AuditLog audit;
     private final LocationService locations;
+    private final Messages messages;
 
-    AccountPagesController(TokenService tokens, UserService users, AuditLog audit, LocationService locations) {
+    AccountPagesController(TokenService tokens, UserService users, AuditLog audit, LocationService locations,
+            Messages messages) {
+        this.messages = messages;
         this.tokens = tokens;
         this.users = users;
         this.audit = audit;
@@ -79,7 +83,7 @@ class AccountPagesController {
         try {
             users.create(new UserService.NewUser(form.username(), form.displayName(), form.email(), form.password(),
                     form.passwordAgain(), form.role()), user.getName());
-            redirect.addFlashAttribute("saved", "Added " + form.username() + ".");
+            redirect.addFlashAttribute("saved", messages.say("flash.userAdded", form.username()));
             return "redirect:/users";
         } catch (InvalidRequest e) {
             model.addAttribute("problems", e.problems());
@@ -93,7 +97,7 @@ class AccountPagesController {
             Principal user, Model model, RedirectAttributes redirect) {
         try {
             users.changeRole(id, role, enabled, user.getName());
-            redirect.addFlashAttribute("saved", "Saved.");
+            redirect.addFlashAttribute("saved", messages.say("loc.saved"));
             return "redirect:/users";
         } catch (InvalidRequest e) {
             model.addAttribute("problems", e.problems());
@@ -106,7 +110,7 @@ class AccountPagesController {
             Principal user, Model model, RedirectAttributes redirect) {
         try {
             users.resetPassword(id, password, passwordAgain, user.getName());
-            redirect.addFlashAttribute("saved", "Password changed.");
+            redirect.addFlashAttribute("saved", messages.say("flash.passwordSet"));
             return "redirect:/users";
         } catch (InvalidRequest e) {
             model.addAttribute("problems", e.problems());

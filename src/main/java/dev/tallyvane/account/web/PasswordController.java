@@ -3,6 +3,7 @@ package dev.tallyvane.account.web;
 import dev.tallyvane.account.PasswordResets;
 import dev.tallyvane.account.UserService;
 import dev.tallyvane.system.InvalidRequest;
+import dev.tallyvane.system.Messages;
 import jakarta.servlet.http.HttpServletResponse;
 import java.security.Principal;
 import org.springframework.stereotype.Controller;
@@ -23,8 +24,10 @@ class PasswordController {
 
     private final UserService users;
     private final PasswordResets resets;
+    private final Messages messages;
 
-    PasswordController(UserService users, PasswordResets resets) {
+    PasswordController(UserService users, PasswordResets resets, Messages messages) {
+        this.messages = messages;
         this.users = users;
         this.resets = resets;
     }
@@ -40,7 +43,7 @@ class PasswordController {
             RedirectAttributes redirect, HttpServletResponse response) {
         try {
             users.changeOwnPassword(user.getName(), current, password, passwordAgain);
-            redirect.addFlashAttribute("saved", "Your password is changed; use it the next time you sign in.");
+            redirect.addFlashAttribute("saved", messages.say("flash.ownPassword"));
             return "redirect:/account/password";
         } catch (InvalidRequest e) {
             response.setStatus(422);
@@ -53,8 +56,7 @@ class PasswordController {
     String sendLink(@PathVariable long id, Principal user, Model model, RedirectAttributes redirect) {
         try {
             String to = resets.send(id, user.getName());
-            redirect.addFlashAttribute("saved", "A link to set a new password was e-mailed to " + to
-                    + ". It works once, for a limited time.");
+            redirect.addFlashAttribute("saved", messages.say("flash.linkSent", to));
         } catch (InvalidRequest e) {
             redirect.addFlashAttribute("problems", e.problems());
         }

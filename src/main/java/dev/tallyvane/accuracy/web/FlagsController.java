@@ -6,6 +6,7 @@ import dev.tallyvane.accuracy.UnknownFlag;
 import dev.tallyvane.forecasting.LocationEvents;
 import dev.tallyvane.forecasting.RefitQueue;
 import dev.tallyvane.system.InvalidRequest;
+import dev.tallyvane.system.Messages;
 import java.security.Principal;
 import org.springframework.stereotype.Controller;
 import org.springframework.web.bind.annotation.PathVariable;
@@ -19,8 +20,10 @@ class FlagsController {
 
     private final FlagService accuracy;
     private final RefitQueue queue;
+    private final Messages messages;
 
-    FlagsController(FlagService accuracy, RefitQueue queue) {
+    FlagsController(FlagService accuracy, RefitQueue queue, Messages messages) {
+        this.messages = messages;
         this.accuracy = accuracy;
         this.queue = queue;
     }
@@ -40,8 +43,7 @@ class FlagsController {
         try {
             LocationEvents.Event e = accuracy.recordAsEvent(id, name, user.getName());
             queue.refitNow(flag.locationId());
-            redirect.addFlashAttribute("flagSaved", "Recorded '" + e.name() + "' (" + e.when() + ", " + e.effect()
-                    + ") as an event; a re-fit reading those days as unusual is queued.");
+            redirect.addFlashAttribute("flagSaved", messages.say("flash.flagEvent", e.name(), e.when(), e.effect()));
         } catch (InvalidRequest e) {
             redirect.addFlashAttribute("flagProblems", e.problems());
         }

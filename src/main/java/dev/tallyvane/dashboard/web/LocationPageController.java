@@ -13,6 +13,8 @@ import dev.tallyvane.location.LocationForm;
 import dev.tallyvane.system.InvalidRequest;
 import java.security.Principal;
 import java.util.Map;
+import org.springframework.context.MessageSource;
+import org.springframework.context.i18n.LocaleContextHolder;
 import org.springframework.stereotype.Controller;
 import org.springframework.ui.Model;
 import org.springframework.web.bind.annotation.GetMapping;
@@ -34,14 +36,16 @@ class LocationPageController {
     private final LocationCharts charts;
     private final SettingsService settings;
     private final RefitQueue queue;
+    private final MessageSource messages;
 
     LocationPageController(LocationService locations, LocationPage page, LocationCharts charts,
-            SettingsService settings, RefitQueue queue) {
+            SettingsService settings, RefitQueue queue, MessageSource messages) {
         this.locations = locations;
         this.page = page;
         this.charts = charts;
         this.settings = settings;
         this.queue = queue;
+        this.messages = messages;
     }
 
     @GetMapping("/locations/{code}")
@@ -85,7 +89,8 @@ class LocationPageController {
             RedirectAttributes redirect) {
         Location l = locations.byCode(code);
         try {
-            SettingsForm.Parsed p = form.parse(settings::problems);
+            SettingsForm.Parsed p = form.parse(settings::problems, field -> messages.getMessage(SettingsForm.labelKey(field), null, field,
+                    LocaleContextHolder.getLocale()));
             settings.saveWithCalendar(l.getId(), FigureRules.DEFAULT_MEASURE, p.input(), p.closed(), p.holidays(),
                     user.getName());
         } catch (InvalidRequest e) {
@@ -113,6 +118,5 @@ class LocationPageController {
         Map<String, String> catalogue = CandidateRegistry.catalogue();
         model.addAttribute("catalogue", catalogue);
         model.addAttribute("metrics", Metric.values());
-        model.addAttribute("settingsLabels", SettingsForm.LABELS);
     }
 }

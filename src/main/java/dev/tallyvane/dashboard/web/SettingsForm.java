@@ -9,11 +9,8 @@ import java.time.LocalDate;
 import java.time.format.DateTimeParseException;
 import java.util.ArrayList;
 import java.util.Arrays;
-import java.util.Collections;
-import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
-import java.util.Map;
 import java.util.function.Function;
 import java.util.stream.Collectors;
 
@@ -52,38 +49,29 @@ record SettingsForm(String granularity, String horizon, String metric, List<Stri
     }
 
     /**
-     * The labels the form shows, by field: problems are named with them, and the page's labels are
-     * read from here, so the two cannot drift apart.
+     * The message key of the label the form shows for a field ({@code settings.label.<field>}):
+     * problems are named with the same label as the page shows, in the reader's language, so the two
+     * cannot drift apart.
      */
-    static final Map<String, String> LABELS = labels();
-
-    private static Map<String, String> labels() {
-        Map<String, String> l = new LinkedHashMap<>();
-        l.put("granularity", "Forecast by");
-        l.put("horizon", "Periods ahead");
-        l.put("metric", "Choose the model by");
-        l.put("seasonalPeriod", "Season length in periods");
-        l.put("weights", "Your moving-average weights");
-        l.put("candidates", "Candidates to compare");
-        l.put("closedDays", "Closed days");
-        l.put("holidays", "Public holidays (open, but unusual)");
-        return Collections.unmodifiableMap(l);
+    static String labelKey(String field) {
+        return "settings.label." + field;
     }
 
     /**
      * Parses the text fields and checks the values with {@code check} (the settings' own rules), so
      * that a typo in one field does not hide a bad value in another.
      *
+     * @param label the label the page shows for a field name
      * @throws InvalidRequest naming every bad field by its label on the page (and the entry)
      */
-    Parsed parse(Function<SettingsInput, List<FieldProblem>> check) {
+    Parsed parse(Function<SettingsInput, List<FieldProblem>> check, Function<String, String> label) {
         List<FieldProblem> problems = new ArrayList<>();
         Parsed parsed = parse(problems);
         // a field that could not be read is absent from the values, so the check says nothing more of it
         problems.addAll(check.apply(parsed.input()));
         if (!problems.isEmpty()) {
             throw new InvalidRequest("The settings have invalid values.", problems.stream()
-                    .map(p -> new FieldProblem(p.index(), LABELS.getOrDefault(p.field(), p.field()), p.reason()))
+                    .map(p -> new FieldProblem(p.index(), label.apply(p.field()), p.reason()))
                     .toList());
         }
         return parsed;

@@ -7,6 +7,8 @@ import dev.tallyvane.intake.FigureRules;
 import dev.tallyvane.location.Location;
 import dev.tallyvane.location.LocationService;
 import dev.tallyvane.system.InvalidRequest;
+import dev.tallyvane.system.Messages;
+import dev.tallyvane.system.Times;
 import java.security.Principal;
 import org.springframework.stereotype.Controller;
 import org.springframework.web.bind.annotation.PathVariable;
@@ -25,8 +27,13 @@ class EventsController {
     private final LocationEvents events;
     private final RefitQueue queue;
     private final RealChanges changes;
+    private final Messages messages;
+    private final Times times;
 
-    EventsController(LocationService locations, LocationEvents events, RefitQueue queue, RealChanges changes) {
+    EventsController(LocationService locations, LocationEvents events, RefitQueue queue, RealChanges changes,
+            Messages messages, Times times) {
+        this.messages = messages;
+        this.times = times;
         this.changes = changes;
         this.locations = locations;
         this.events = events;
@@ -39,8 +46,7 @@ class EventsController {
         try {
             LocationEvents.Event e = events.add(l.getId(), l.getCode(), form, user.getName());
             queue.refitNow(l.getId());
-            redirect.addFlashAttribute("eventSaved", "Added '" + e.name() + "' (" + e.when() + ", " + e.effect()
-                    + "); a re-fit with it is queued.");
+            redirect.addFlashAttribute("eventSaved", messages.say("flash.eventAdded", e.name(), e.when(), e.effect()));
         } catch (InvalidRequest e) {
             redirect.addFlashAttribute("eventProblems", e.problems());
             redirect.addFlashAttribute("eventInput", form);
@@ -53,7 +59,7 @@ class EventsController {
         Location l = locations.byCode(code);
         events.remove(l.getId(), l.getCode(), id, user.getName());
         queue.refitNow(l.getId());
-        redirect.addFlashAttribute("eventSaved", "Removed the event; a re-fit without it is queued.");
+        redirect.addFlashAttribute("eventSaved", messages.say("flash.eventRemoved"));
         return "redirect:/locations/" + l.getCode() + "#events";
     }
 
@@ -64,8 +70,7 @@ class EventsController {
         try {
             RealChanges.Mark m = changes.mark(l.getId(), l.getCode(), FigureRules.DEFAULT_MEASURE, from, user.getName());
             queue.refitNow(l.getId());
-            redirect.addFlashAttribute("changeSaved", "Marked a real change from " + m.from()
-                    + "; a re-fit starting the models there is queued.");
+            redirect.addFlashAttribute("changeSaved", messages.say("flash.changeMarked", times.day(m.from())));
         } catch (InvalidRequest e) {
             redirect.addFlashAttribute("changeProblems", e.problems());
         }
@@ -77,7 +82,7 @@ class EventsController {
         Location l = locations.byCode(code);
         changes.remove(l.getId(), l.getCode(), FigureRules.DEFAULT_MEASURE, user.getName());
         queue.refitNow(l.getId());
-        redirect.addFlashAttribute("changeSaved", "The mark is removed; a re-fit on all the figures is queued.");
+        redirect.addFlashAttribute("changeSaved", messages.say("flash.changeRemoved"));
         return "redirect:/locations/" + l.getCode() + "#flags-h";
     }
 }

@@ -5,6 +5,7 @@ import dev.tallyvane.intake.upload.UploadOptions;
 import dev.tallyvane.intake.upload.UploadRejected;
 import dev.tallyvane.intake.upload.UploadService;
 import dev.tallyvane.system.InvalidRequest;
+import dev.tallyvane.system.Messages;
 import java.io.IOException;
 import java.security.Principal;
 import org.springframework.http.ContentDisposition;
@@ -26,11 +27,13 @@ class UploadsController {
 
     private final UploadService uploads;
     private final long maxBytes;
+    private final Messages messages;
 
-    UploadsController(UploadService uploads,
+    UploadsController(UploadService uploads, Messages messages,
             @org.springframework.beans.factory.annotation.Value("${spring.servlet.multipart.max-file-size:20MB}")
             org.springframework.util.unit.DataSize maxFileSize) {
         this.uploads = uploads;
+        this.messages = messages;
         this.maxBytes = maxFileSize.toBytes();
     }
 
@@ -48,7 +51,7 @@ class UploadsController {
         if (file == null) {
             // a plain form post, or a multipart one without the file field: nothing to read
             response.setStatus(400);
-            model.addAttribute("error", "No file was sent. Choose a CSV or Excel file and press Upload.");
+            model.addAttribute("error", messages.say("flash.noFile"));
             return page(model);
         }
         try {

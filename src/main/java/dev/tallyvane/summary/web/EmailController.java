@@ -2,6 +2,7 @@ package dev.tallyvane.summary.web;
 
 import dev.tallyvane.account.UserService;
 import dev.tallyvane.summary.SummaryService;
+import dev.tallyvane.system.Messages;
 import jakarta.servlet.http.HttpServletResponse;
 import java.security.Principal;
 import java.time.LocalDate;
@@ -27,8 +28,10 @@ class EmailController {
 
     private final SummaryService summaries;
     private final UserService users;
+    private final Messages messages;
 
-    EmailController(SummaryService summaries, UserService users) {
+    EmailController(SummaryService summaries, UserService users, Messages messages) {
+        this.messages = messages;
         this.summaries = summaries;
         this.users = users;
     }
@@ -52,7 +55,7 @@ class EmailController {
             RedirectAttributes redirect) {
         var me = users.all().stream().filter(u -> u.getUsername().equalsIgnoreCase(user.getName())).findFirst().orElseThrow();
         users.weeklyEmail(me.getId(), wanted, user.getName());
-        redirect.addFlashAttribute("saved", wanted ? "You will receive the weekly summary." : "You will not receive the weekly summary.");
+        redirect.addFlashAttribute("saved", messages.say(wanted ? "flash.emailOn" : "flash.emailOff"));
         return "redirect:/email";
     }
 
@@ -61,9 +64,9 @@ class EmailController {
     String test(Principal user, RedirectAttributes redirect) {
         try {
             SummaryService.Send s = summaries.sendTest(user.getName());
-            redirect.addFlashAttribute("saved", "Test e-mail sent to " + s.email() + ".");
+            redirect.addFlashAttribute("saved", messages.say("flash.testSent", s.email()));
         } catch (RuntimeException e) {
-            redirect.addFlashAttribute("failed", "The test e-mail could not be sent: " + e.getMessage());
+            redirect.addFlashAttribute("failed", messages.say("flash.testFailed", e.getMessage()));
         }
         return "redirect:/email";
     }

@@ -1,0 +1,24 @@
+package dev.tallyvane.system;
+
+import org.springframework.context.MessageSource;
+import org.springframework.context.i18n.LocaleContextHolder;
+import org.springframework.stereotype.Component;
+
+/**
+ * The sentences controllers put on a page after an action ("Saved.", "Test e-mail sent to …"),
+ * read from the message bundles in the reader's language, like the pages' own words.
+ */
+@Component
+public class Messages {
+
+    private final MessageSource source;
+
+    Messages(MessageSource source) {
+        this.source = source;
+    }
+
+    /** The message {@code key} of the bundles in the request's locale, with its arguments filled in. */
+    public String say(String key, Object... args) {
+        return source.getMessage(key, args, LocaleContextHolder.getLocale());
+    }
+}
