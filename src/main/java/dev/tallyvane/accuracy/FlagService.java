@@ -5,7 +5,11 @@ import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.forecasting.LevelShifts;
 import dev.tallyvane.forecasting.LocationEvents;
 import dev.tallyvane.forecasting.RealChanges;
+import dev.tallyvane.engine.ShiftTrial;
+import dev.tallyvane.forecasting.EventWords;
 import dev.tallyvane.system.InvalidRequest;
+import dev.tallyvane.system.Messages;
+import dev.tallyvane.system.Times;
 import java.time.Clock;
 import java.time.Instant;
 import java.time.LocalDate;
@@ -30,9 +34,16 @@ public class FlagService {
     private final RealChanges realChanges;
     private final LocationEvents events;
     private final Clock clock;
+    private final Messages messages;
+    private final Times times;
+    private final EventWords eventWords;
 
     FlagService(FlagStore flags, AccuracyReports reports, LevelShifts shifts, RealChanges realChanges,
-            LocationEvents events, Clock clock) {
+            LocationEvents events, Clock clock, Messages messages, Times times,
+            EventWords eventWords) {
+        this.messages = messages;
+        this.eventWords = eventWords;
+        this.times = times;
         this.flags = flags;
         this.reports = reports;
         this.shifts = shifts;
@@ -44,7 +55,7 @@ public class FlagService {
     /** Flags, newest first, optionally of one location; open ones carry their advice. */
     @Transactional(readOnly = true)
     public List<DriftFlag> flags(Long locationId, boolean openOnly) {
-        return flags.list(locationId, openOnly, 500).stream().map(f -> f.open() ? f.withAdvice(advice(f)) : f).toList();
+        return flags.list(locationId, openOnly, 500).stream().map(f -> f.open() ? f.withAdvice(advice(f, reader())) : f).toList();
     }
 
     /** Numbers that change whenever a flag is raised, cleared or acknowledged. */
@@ -55,21 +66,21 @@ public class FlagService {
 
     /**
      * The series' open flags that are not snoozed now, oldest first, each as its reason and what the service
-     * did (what the weekly e-mail lists).
+     * did (what the weekly e-mail lists), what the service did in the e-mail's language.
      */
     @Transactional(readOnly = true)
-    public List<String> attention(long locationId, String measure) {
+    public List<String> attention(long locationId, String measure, Locale locale) {
         Instant now = clock.instant();
         List<DriftFlag> open = new ArrayList<>(flags.list(locationId, true, 500));
         java.util.Collections.reverse(open);
         return open.stream().filter(f -> f.measure().equals(measure)
                 && (f.snoozedUntil() == null || f.snoozedUntil().isBefore(now)))
-                .map(f -> f.reason() + " " + advice(f).serviceDid()).toList();
+                .map(f -> f.reason() + " " + advice(f, locale).serviceDid()).toList();
     }
 
     @Transactional(readOnly = true)
     public Optional<DriftFlag> flag(long id) {
-        return flags.byId(id).map(f -> f.open() ? f.withAdvice(advice(f)) : f);
+        return flags.byId(id).map(f -> f.open() ? f.withAdvice(advice(f, reader())) : f);
     }
 
     /**
@@ -123,35 +134,39 @@ public class FlagService {
                 && e.firstDay().equals(f.since())).findFirst();
     }
 
-    /** What the service did about an open flag and what the owner can do. */
-    private DriftFlag.Advice advice(DriftFlag f) {
+    /** The reader's language: the request's, or the default where there is none. */
+    private static Locale reader() {
+        return org.springframework.context.i18n.LocaleContextHolder.getLocale();
+    }
+
+    /**
+     * What the service did about an open flag and what the owner can do, in the reader's words and
+     * with days as the reader writes them (the bundles' {@code advice.*}).
+     */
+    private DriftFlag.Advice advice(DriftFlag f, Locale locale) {
         if (!f.shift()) {
-            return new DriftFlag.Advice("Each re-fit compares every model again on the newest figures and keeps the one "
-                    + "that forecasts best out of sample.", "Check the latest figures for a mistake (a wrong figure can be "
-                    + "corrected on this page); until the flag clears, plan with the wider 95% range.", null, null, null);
+            return new DriftFlag.Advice(messages.in(locale, "advice.refits"), messages.in(locale, "advice.check"),
+                    null, null, null);
         }
         List<AccuracyReports.StepOne> episode = reports.stepOneErrors(f.locationId(), f.measure()).stream()
                 .filter(e -> !e.period().isBefore(f.since())).toList();
         Granularity g = episode.isEmpty() ? Granularity.WEEK : Granularity.valueOf(episode.get(0).granularity());
-        String unit = g.name().toLowerCase(Locale.ROOT);
+        String units = messages.in(locale, "granularity." + g.name().toLowerCase(Locale.ROOT) + ".many");
         String did;
         Optional<RealChanges.Mark> mark = realChanges.of(f.locationId(), f.measure());
         Optional<LevelShifts.Shift> shift = shifts.of(f.locationId(), f.measure());
         if (mark.isPresent()) {
-            did = "You marked a real change from " + mark.get().from() + ": re-fits start the models there once "
-                    + RealChanges.MIN_PERIODS + " complete " + unit + "s follow it.";
+            did = messages.in(locale, "advice.marked", times.day(mark.get().from(), locale), RealChanges.MIN_PERIODS,
+                    units);
         } else if (shift.isPresent() && shift.get().trial() != null) {
             LevelShifts.Trial t = shift.get().trial();
-            did = String.format(Locale.ROOT, "The latest re-fit tried starting the models at %s, where the run began: out of "
-                    + "sample over the last %d %s%s that gave an error %.0f%% %s than fitting the whole history, so %s.",
-                    shift.get().from(), t.origins(), unit, t.origins() == 1 ? "" : "s", Math.abs(100 * t.change()),
-                    t.change() < 0 ? "lower" : "higher", t.startAfter() ? "the forecast now starts there"
-                            : "the whole history is kept");
+            did = messages.in(locale, "advice.trial." + (t.change() < 0 ? "lower" : "higher") + "."
+                    + (t.startAfter() ? "starts" : "kept"), times.day(shift.get().from(), locale), t.origins(), units,
+                    Math.round(Math.abs(100 * t.change())));
         } else if (shift.isPresent()) {
-            did = "This is taken as a shift from " + shift.get().from() + ": " + LevelShifts.untilTried(unit);
+            did = messages.in(locale, "advice.shift", times.day(shift.get().from(), locale), ShiftTrial.MIN_AFTER, units);
         } else {
-            did = "Each re-fit compares every model again on the newest figures and keeps the one that forecasts best "
-                    + "out of sample.";
+            did = messages.in(locale, "advice.refits");
         }
         LocalDate from = f.since();
         LocalDate to = episode.isEmpty() ? null : g.plus(episode.get(episode.size() - 1).period(), 1).minusDays(1);
@@ -161,15 +176,12 @@ public class FlagService {
         boolean event = to != null && ChronoUnit.DAYS.between(from, to) + 1 <= LocationEvents.MAX_DAYS && forecast > 0
                 && recorded.isEmpty();
         Double pct = event ? Math.max(-100, Math.min(500, Math.round(1000 * (actual / forecast - 1)) / 10.0)) : null;
-        String can = "If sales moved for good, mark a real change from " + from + ". " + (recorded.isPresent()
-                ? "It is recorded as the event '" + recorded.get().name() + "' (" + recorded.get().effect() + "): the "
-                        + "re-fits read those days as unusual, and the flag clears as the errors settle."
+        String can = messages.in(locale, "advice.mark", times.day(from, locale)) + " " + (recorded.isPresent()
+                ? messages.in(locale, "advice.recorded", recorded.get().name(), eventWords.effect(recorded.get()))
                 : event
-                ? String.format(Locale.ROOT, "If it was a one-off (street works, a festival, a closure), record it as an "
-                        + "event from %s to %s (%+.1f%%, as it ran against the forecast): the forecast then reads those "
-                        + "days as unusual and expects the same if you enter the event again ahead.", from, to, pct)
-                : "A one-off that lasts longer than " + LocationEvents.MAX_DAYS + " days is not an event; if it ends, "
-                        + "the flag clears by itself.");
+                ? messages.in(locale, "advice.event", times.day(from, locale), times.day(to, locale),
+                        String.format(locale, "%+.1f%%", pct))
+                : messages.in(locale, "advice.long", LocationEvents.MAX_DAYS));
         return new DriftFlag.Advice(did, can, event ? from : null, event ? to : null, pct);
     }
 }

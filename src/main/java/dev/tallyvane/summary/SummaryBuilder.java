@@ -45,9 +45,11 @@ class SummaryBuilder {
     private final IssuedForecasts issued;
     private final FlagService flagService;
     private final ChainTotals chainTotals;
+    private final java.util.Locale mailLocale;
 
     SummaryBuilder(LocationService locations, SeriesReader reader, FigureFacts figures, IssuedForecasts issued,
-            FlagService flagService, ChainTotals chainTotals) {
+            FlagService flagService, ChainTotals chainTotals, SummaryProperties properties) {
+        this.mailLocale = java.util.Locale.forLanguageTag(properties.locale());
         this.locations = locations;
         this.reader = reader;
         this.figures = figures;
@@ -148,7 +150,7 @@ class SummaryBuilder {
         LocalDate nextPeriod = g.plus(period, 1);
         IssuedForecasts.IssuedPoint next = issued.newestFrom(l.getId(), measure, g.name(), nextPeriod).stream()
                 .filter(p -> p.period().equals(nextPeriod)).findFirst().orElse(null);
-        List<String> flags = flagService.attention(l.getId(), measure);
+        List<String> flags = flagService.attention(l.getId(), measure, mailLocale);
         LocalDate lastFigure = actual != null ? null : figures.latestPeriod(l.getId(), measure).orElse(null);
         return new WeeklySummary.Line(l.getCode(), l.getName(), l.getCurrency(), g.name().toLowerCase(Locale.ROOT),
                 period, actual, forecast, nextPeriod, next == null ? null : MoneyRounding.round(next.forecast(), cur),

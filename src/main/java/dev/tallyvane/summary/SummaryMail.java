@@ -7,6 +7,7 @@ import java.text.NumberFormat;
 import java.time.format.DateTimeFormatter;
 import java.util.Currency;
 import java.util.Locale;
+import org.springframework.context.MessageSource;
 import org.springframework.core.io.ByteArrayResource;
 import org.springframework.mail.javamail.JavaMailSender;
 import org.springframework.mail.javamail.MimeMessageHelper;
@@ -25,11 +26,14 @@ class SummaryMail {
     private final ITemplateEngine templates;
     private final JavaMailSender sender;
     private final SummaryProperties properties;
+    private final MessageSource messages;
 
-    SummaryMail(ITemplateEngine templates, JavaMailSender sender, SummaryProperties properties) {
+    SummaryMail(ITemplateEngine templates, JavaMailSender sender, SummaryProperties properties,
+            MessageSource messages) {
         this.templates = templates;
         this.sender = sender;
         this.properties = properties;
+        this.messages = messages;
     }
 
     /** A rendered e-mail. */
@@ -39,9 +43,16 @@ class SummaryMail {
     /** Formatting helpers the template calls ({@code fmt}). */
     static final class Formats {
         private final Locale locale;
+        private final MessageSource messages;
 
-        Formats(Locale locale) {
+        Formats(Locale locale, MessageSource messages) {
             this.locale = locale;
+            this.messages = messages;
+        }
+
+        /** The e-mail's words: the message bundles in the e-mail's language ({@code tallyvane.summary.locale}). */
+        String say(String key, Object... args) {
+            return messages.getMessage(key, args, locale);
         }
 
         public String money(BigDecimal amount, String currency) {
@@ -67,14 +78,18 @@ class SummaryMail {
 
         /** "next week" or the month's name, for the line's next period. */
         String next(WeeklySummary.Line l) {
-            return l.monthly() ? month(l.nextPeriod()) : "next week";
+            return l.monthly() ? month(l.nextPeriod()) : say("mail.nextWeek");
         }
     }
 
     Rendered render(WeeklySummary summary, String recipientName, String unsubscribeUrl, String chartSrc) {
-        Locale locale = Locale.forLanguageTag(properties.locale());
-        Formats fmt = new Formats(locale);
-        String subject = "Tallyvane weekly summary: " + fmt.day(summary.weekStart()) + " – " + fmt.day(summary.weekEnd());
+        return render(summary, recipientName, unsubscribeUrl, chartSrc, Locale.forLanguageTag(properties.locale()));
+    }
+
+    /** The same in the given language: its words from the bundles, its amounts and dates in its forms. */
+    Rendered render(WeeklySummary summary, String recipientName, String unsubscribeUrl, String chartSrc, Locale locale) {
+        Formats fmt = new Formats(locale, messages);
+        String subject = fmt.say("mail.subject", fmt.day(summary.weekStart()), fmt.day(summary.weekEnd()));
         Context context = new Context(locale);
         context.setVariable("s", summary);
         context.setVariable("fmt", fmt);
@@ -90,16 +105,15 @@ class SummaryMail {
 
     private String text(WeeklySummary s, Formats fmt, String name, String unsubscribeUrl) {
         StringBuilder t = new StringBuilder();
-        t.append("Hello ").append(name).append(",\n\n");
-        t.append("Week ").append(fmt.day(s.weekStart())).append(" – ").append(fmt.day(s.weekEnd())).append("\n\n");
+        t.append(fmt.say("mail.hello", name)).append("\n\n");
+        t.append(fmt.say("mail.t.week", fmt.day(s.weekStart()), fmt.day(s.weekEnd()))).append("\n\n");
         if (!s.hasFigures()) {
-            t.append("No figures arrived for this week. Tallyvane will catch up as soon as they do.\n\n");
+            t.append(fmt.say("mail.t.noFigures")).append("\n\n");
         }
         for (WeeklySummary.Line c : s.chain()) {
-            t.append("All locations").append(c.monthly() ? ", " + fmt.month(c.period()) : "").append(": actual ")
-                    .append(fmt.money(c.actual(), c.currency())).append(", forecast ")
-                    .append(fmt.money(c.forecast(), c.currency())).append(", error ").append(fmt.money(c.error(), c.currency()))
-                    .append(" (").append(fmt.percent(c.errorPercent())).append("); ").append(fmt.next(c)).append(" ");
+            t.append(fmt.say("mail.all")).append(c.monthly() ? ", " + fmt.month(c.period()) : "").append(": ");
+            figures(t, fmt, c);
+            t.append("; ").append(fmt.next(c)).append(" ");
             range(t, fmt, c);
             if (!c.note().isEmpty()) {
                 t.append("  ").append(c.note()).append("\n");
@@ -110,14 +124,14 @@ class SummaryMail {
             location(t, fmt, l);
         }
         if (!s.monthly().isEmpty()) {
-            t.append("\nLocations reporting by the month:\n");
+            t.append("\n").append(fmt.say("mail.monthly")).append(":\n");
             for (WeeklySummary.Line l : s.monthly()) {
                 location(t, fmt, l);
             }
         }
-        t.append("\nForecasts are estimates, not guarantees: the 80% range is where the figure will likely fall.\n");
-        t.append("Dashboard: ").append(properties.dashboardUrl()).append("\n");
-        t.append("Stop these e-mails: ").append(unsubscribeUrl).append("\n");
+        t.append("\n").append(fmt.say("mail.t.estimates")).append("\n");
+        t.append(fmt.say("mail.t.dashboard", properties.dashboardUrl())).append("\n");
+        t.append(fmt.say("mail.t.stop", unsubscribeUrl)).append("\n");
         return t.toString();
     }
 
@@ -127,25 +141,29 @@ class SummaryMail {
             t.append(fmt.month(l.period())).append(" ");
         }
         if (l.actual() == null) {
-            t.append(l.lastFigureOn() == null ? "no figures yet" : "no figures since " + fmt.day(l.lastFigureOn()));
+            t.append(l.lastFigureOn() == null ? fmt.say("mail.t.noFiguresYet")
+                    : fmt.say("mail.t.noFiguresSince", fmt.day(l.lastFigureOn())));
         } else {
-            t.append("actual ").append(fmt.money(l.actual(), l.currency())).append(", forecast ")
-                    .append(fmt.money(l.forecast(), l.currency())).append(", error ")
-                    .append(fmt.money(l.error(), l.currency())).append(" (").append(fmt.percent(l.errorPercent()))
-                    .append(")");
+            figures(t, fmt, l);
         }
         t.append("; ").append(fmt.next(l)).append(" ");
         range(t, fmt, l);
         for (String flag : l.flags()) {
-            t.append("  Needs attention: ").append(flag).append("\n");
+            t.append("  ").append(fmt.say("mail.attention", flag)).append("\n");
         }
+    }
+
+    /** "actual €1,200.00, forecast €1,150.00, error €50.00 (+4.2%)" in the e-mail's words. */
+    private static void figures(StringBuilder t, Formats fmt, WeeklySummary.Line l) {
+        t.append(fmt.say("mail.t.figures", fmt.money(l.actual(), l.currency()), fmt.money(l.forecast(), l.currency()),
+                fmt.money(l.error(), l.currency()), fmt.percent(l.errorPercent())));
     }
 
     private static void range(StringBuilder t, Formats fmt, WeeklySummary.Line l) {
         t.append(fmt.money(l.nextForecast(), l.currency()));
         if (l.nextForecast() != null) {
-            t.append(" (80% range ").append(fmt.money(l.nextLo80(), l.currency())).append(" – ")
-                    .append(fmt.money(l.nextHi80(), l.currency())).append(")");
+            t.append(" (").append(fmt.say("mail.t.range", fmt.money(l.nextLo80(), l.currency()),
+                    fmt.money(l.nextHi80(), l.currency()))).append(")");
         }
         t.append("\n");
     }

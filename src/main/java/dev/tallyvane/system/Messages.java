@@ -19,6 +19,11 @@ public class Messages {
 
     /** The message {@code key} of the bundles in the request's locale, with its arguments filled in. */
     public String say(String key, Object... args) {
-        return source.getMessage(key, args, LocaleContextHolder.getLocale());
+        return in(LocaleContextHolder.getLocale(), key, args);
+    }
+
+    /** The same in a given language (e.g. the weekly e-mail's, which has no request). */
+    public String in(java.util.Locale locale, String key, Object... args) {
+        return source.getMessage(key, args, locale);
     }
 }

@@ -47,8 +47,13 @@ public class Times {
      * form stays in the markup for tools and tests. Empty for no date.
      */
     public String day(java.time.LocalDate date) {
+        return day(date, org.springframework.context.i18n.LocaleContextHolder.getLocale());
+    }
+
+    /** The same in a given language (e.g. the weekly e-mail's, which has no request). */
+    public String day(java.time.LocalDate date, Locale locale) {
         return date == null ? "" : java.time.format.DateTimeFormatter.ofLocalizedDate(java.time.format.FormatStyle.MEDIUM)
-                .withLocale(org.springframework.context.i18n.LocaleContextHolder.getLocale()).format(date);
+                .withLocale(locale).format(date);
     }
 
     /** The day of the week of a date in the reader's language, e.g. "Monday" or "Montag". */

@@ -76,6 +76,8 @@ abstract class FlagEpisodesContract {
     @Autowired
     MockMvc mvc;
     @Autowired
+    dev.tallyvane.system.Times times;
+    @Autowired
     LocationService locations;
     @Autowired
     IntakeService intake;
@@ -165,10 +167,11 @@ abstract class FlagEpisodesContract {
                 .contains("lower than fitting the whole history, so the models start there.");
         // the new level: 5 x 700 + 2 x 980 = 5,460 a week
         assertThat(f.points().get(0).forecast()).isCloseTo(5460, within(250.0));
-        assertThat(flag.advice().serviceDid()).startsWith("The latest re-fit tried starting the models at " + CHANGE
-                + ", where the run began: out of sample over the last 4 weeks that gave an error ")
+        // the advice writes days as its reader does (here the default locale, as Times writes it)
+        assertThat(flag.advice().serviceDid()).startsWith("The latest re-fit tried starting the models at "
+                + times.day(CHANGE) + ", where the run began: out of sample over the last 4 weeks that gave an error ")
                 .endsWith("lower than fitting the whole history, so the forecast now starts there.");
-        assertThat(flag.advice().ownerCan()).startsWith("If sales moved for good, mark a real change from " + CHANGE + ".")
+        assertThat(flag.advice().ownerCan()).startsWith("If sales moved for good, mark a real change from " + times.day(CHANGE) + ".")
                 .contains("longer than 31 days is not an event");
         assertThat(flag.advice().eventFrom()).as("nine weeks are no event").isNull();
 
@@ -176,11 +179,12 @@ abstract class FlagEpisodesContract {
         String page = mvc.perform(get("/locations/{c}", l.getCode()).with(user("olive").roles("OWNER")))
                 .andExpect(status().isOk()).andReturn().getResponse().getContentAsString();
         assertThat(page).contains("What the service did, what you can do").contains("where the run began")
-                .contains("A real change from Sep 28, 2026") // the reader's locale (English by default).doesNotContain("This was an event</button>")
+                // the reader's locale: English by default
+                .contains("A real change from Sep 28, 2026").doesNotContain("This was an event</button>")
                 .contains("Notes on the data, the calendar and shifts in sales")
                 .contains("The drift watch found a shift in sales from " + CHANGE);
         // the weekly e-mail's attention line carries what the service did
-        assertThat(flags.attention(l.getId(), MEASURE)).singleElement().asString()
+        assertThat(flags.attention(l.getId(), MEASURE, java.util.Locale.UK)).singleElement().asString()
                 .contains("below forecast").contains("the forecast now starts there");
     }
 

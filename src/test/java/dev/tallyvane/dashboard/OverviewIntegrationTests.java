@@ -156,6 +156,33 @@ class OverviewIntegrationTests {
         assertThat(british).contains("<h1>Locations</h1>").contains("Error trend").contains("no forecast yet");
     }
 
+    /** Every other page speaks the reader's language too: a location, uploads, tokens, users, measures, e-mail. */
+    @Test
+    void theOtherPagesAreInTheReadersLanguage() throws Exception {
+        String location = mvc.perform(get("/locations/L001").with(owner).header("Accept-Language", "de-DE")).andReturn()
+                .getResponse().getContentAsString();
+        assertThat(location).contains("lang=\"de-DE\"").contains("Prognose").contains("Genauigkeit bisher")
+                .contains("Prognoseeinstellungen").contains("Zeitraum ab").contains("Ereignisse")
+                .contains("Drift-Warnungen").contains("Neueste Zahlen")
+                .doesNotContain("Accuracy so far").doesNotContain("Forecast settings").doesNotContain("Latest figures");
+        java.util.Map<String, String> pages = java.util.Map.of("/uploads", "Zahlen hochladen", "/tokens",
+                "Token erstellen", "/users", "Einen Benutzer anlegen", "/measures", "Eine Kennzahl anlegen", "/email",
+                "Wöchentliche Zusammenfassung per E-Mail", "/account/password", "Mein Passwort ändern", "/audit",
+                "Die letzten 200 Vorgänge", "/locations/new", "Standort anlegen");
+        for (var p : pages.entrySet()) {
+            assertThat(mvc.perform(get(p.getKey()).with(owner).header("Accept-Language", "de")).andReturn().getResponse()
+                    .getContentAsString()).as(p.getKey()).contains(p.getValue());
+        }
+        // settings problems are named with the label the German page shows
+        String bad = mvc.perform(org.springframework.test.web.servlet.request.MockMvcRequestBuilders
+                .post("/locations/L001/settings").with(owner).with(org.springframework.security.test.web.servlet
+                        .request.SecurityMockMvcRequestPostProcessors.csrf()).header("Accept-Language", "de-DE")
+                .param("granularity", "auto").param("horizon", "-3").param("metric", "mse").param("weights", "-1"))
+                .andReturn().getResponse().getContentAsString();
+        assertThat(bad).contains("<strong>Zeiträume voraus</strong>")
+                .contains("<strong>Ihre Gewichte für den gleitenden Durchschnitt</strong>");
+    }
+
     private static String format(double v) {
         java.text.NumberFormat f = java.text.NumberFormat.getCurrencyInstance(Locale.UK);
         f.setCurrency(java.util.Currency.getInstance("EUR"));

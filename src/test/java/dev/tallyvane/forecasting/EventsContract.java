@@ -215,9 +215,12 @@ abstract class EventsContract {
                 s -> s.forecasts() > 0);
         assertThat(score.errorWith()).isLessThan(score.errorWithout());
         assertThat(score.valueAddedPct()).isPositive();
-        String page = mvc.perform(get("/locations/{c}", code).with(user("olive").roles("OWNER")))
+        String page = mvc.perform(get("/locations/{c}", code).with(user("olive").roles("OWNER")).locale(java.util.Locale.UK))
                 .andExpect(status().isOk()).andReturn().getResponse().getContentAsString();
-        assertThat(page).contains("id=\"events-table\"").contains("every other Thursday from " + FIRST_MARKET)
+        // the event's "when" in the reader's words and dates (British here)
+        assertThat(page).contains("id=\"events-table\"").contains("every other Thursday from " + java.time.format
+                .DateTimeFormatter.ofLocalizedDate(java.time.format.FormatStyle.MEDIUM).withLocale(java.util.Locale.UK)
+                .format(FIRST_MARKET))
                 .contains("with it,").contains("-50% (stated)");
 
         // removing the street works: kept in the activity log; a second removal finds nothing

@@ -83,6 +83,13 @@ class WeeklySummaryIntegrationTests {
     MutableClock clock;
 
     static final LocalDate WEEK = LocalDate.of(2026, 11, 23);
+
+    @Autowired
+    SummaryMail mail;
+    @Autowired
+    SummaryBuilder summaryBuilder;
+    @Autowired
+    SummaryProperties summaryProperties;
     static boolean prepared;
     static long owner;
     static long optedOut;
@@ -229,13 +236,13 @@ class WeeklySummaryIntegrationTests {
         for (String code : List.of("HARBOUR", "MILLRACE")) {
             Location l = locations.byCode(code);
             BigDecimal actual = reader.read(l, "net_sales", Granularity.WEEK, null, WEEK, WEEK).points().get(0).amount();
-            String formatted = new SummaryMail.Formats(Locale.forLanguageTag("en-GB")).money(actual, "EUR");
+            String formatted = new SummaryMail.Formats(Locale.forLanguageTag("en-GB"), null).money(actual, "EUR");
             assertThat(html).contains(formatted);
             assertThat(text).contains(code).contains(formatted);
             Double forecast = jdbc.queryForObject("select p.forecast from issued_forecast_point p join issued_forecast f "
                     + "on f.id = p.issued_id where f.location_id = ? and p.period_start = ? and f.last_period < ? "
                     + "order by f.id desc fetch first 1 rows only", Double.class, l.getId(), WEEK, WEEK);
-            assertThat(html).contains(new SummaryMail.Formats(Locale.forLanguageTag("en-GB"))
+            assertThat(html).contains(new SummaryMail.Formats(Locale.forLanguageTag("en-GB"), null)
                     .money(BigDecimal.valueOf(forecast).setScale(2, java.math.RoundingMode.HALF_UP), "EUR"));
         }
         // the chain's line (one shared fragment for weekly and monthly rows) and how its range was built
@@ -243,6 +250,19 @@ class WeeklySummaryIntegrationTests {
         assertThat(text).contains("All locations: actual");
         assertThat(html).contains("cid:chart").contains("Forecasts are estimates").contains("https://tallyvane.example.test");
         assertThat(text).contains("Forecasts are estimates");
+        // the same week's e-mail in German (tallyvane.summary.locale=de-DE): its words from the German bundle,
+        // amounts and dates in German forms
+        SummaryMail.Rendered de = mail.render(summaryBuilder.build(WEEK, SummaryService.zone(summaryProperties)),
+                "Olive", "https://tallyvane.example.test/email/unsubscribe?u=1", "cid:chart", Locale.GERMANY);
+        assertThat(de.subject()).isEqualTo("Tallyvane-Wochenübersicht: 23 Nov. 2026 – 29 Nov. 2026");
+        assertThat(de.html()).contains("Hallo Olive,").contains("Letzte Woche").contains("Alle Standorte, Wochen:")
+                .contains("Prognosen sind Schätzungen").doesNotContain("Forecasts are estimates");
+        Location harbour = locations.byCode("HARBOUR");
+        BigDecimal harbourActual = reader.read(harbour, "net_sales", Granularity.WEEK, null, WEEK, WEEK).points().get(0)
+                .amount();
+        assertThat(de.text()).contains("Alle Standorte: Ist ").contains("nächste Woche").contains("80-%-Bereich")
+                .contains(new SummaryMail.Formats(Locale.GERMANY, null).money(harbourActual, "EUR"))
+                .contains("Diese E-Mails abbestellen: https://tallyvane.example.test/email/unsubscribe?u=1");
         Path eml = Path.of("target", "weekly-summary.eml");
         Files.createDirectories(eml.getParent());
         try (FileOutputStream out = new FileOutputStream(eml.toFile())) {

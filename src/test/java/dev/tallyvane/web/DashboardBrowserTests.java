@@ -146,7 +146,7 @@ class DashboardBrowserTests {
         browser.go("/locations/QUAY");
         // the flag says what the service did and what the owner can do, with the one-click mark
         assertThat(browser.find("#flags .flag-did").getText()).isNotBlank();
-        assertThat(browser.find("#flags .flag-can").getText()).startsWith("If sales moved for good, mark a real change from 2026-11-09.");
+        assertThat(browser.find("#flags .flag-can").getText()).startsWith("If sales moved for good, mark a real change from 9 Nov 2026.");
         assertThat(browser.find("#flags .flag-actions").getText()).contains("A real change from 9 Nov 2026"); // the reader's locale (en-GB in the test browser)
         browser.find("#flags input[name=note]").sendKeys("new office block opened nearby");
         browser.find("#flags select[name=snoozeDays] option[value='7']").click();
@@ -227,7 +227,7 @@ class DashboardBrowserTests {
         browser.find("#event-effect").clear();
         browser.find("#event-effect").sendKeys("-50");
         browser.find("#event-form button[type=submit]").click();
-        assertThat(browser.await("#event-saved", 10).getText()).contains("Added 'Street works' (2026-12-11, -50% (stated))");
+        assertThat(browser.await("#event-saved", 10).getText()).contains("Added 'Street works' (11 Dec 2026, -50% (stated))"); // the reader's words (en-GB)
         assertThat(browser.find("#events-table").getText()).contains("Street works").contains("olive");
         Awaitility.await().atMost(Duration.ofSeconds(30)).pollInterval(Duration.ofMillis(200))
                 .until(() -> queue.status(id).idle() && refits.current(id, FigureRules.DEFAULT_MEASURE)

@@ -3,6 +3,7 @@ package dev.tallyvane.accuracy.web;
 import dev.tallyvane.accuracy.DriftFlag;
 import dev.tallyvane.accuracy.FlagService;
 import dev.tallyvane.accuracy.UnknownFlag;
+import dev.tallyvane.forecasting.EventWords;
 import dev.tallyvane.forecasting.LocationEvents;
 import dev.tallyvane.forecasting.RefitQueue;
 import dev.tallyvane.system.InvalidRequest;
@@ -21,9 +22,11 @@ class FlagsController {
     private final FlagService accuracy;
     private final RefitQueue queue;
     private final Messages messages;
+    private final EventWords eventWords;
 
-    FlagsController(FlagService accuracy, RefitQueue queue, Messages messages) {
+    FlagsController(FlagService accuracy, RefitQueue queue, Messages messages, EventWords eventWords) {
         this.messages = messages;
+        this.eventWords = eventWords;
         this.accuracy = accuracy;
         this.queue = queue;
     }
@@ -43,7 +46,7 @@ class FlagsController {
         try {
             LocationEvents.Event e = accuracy.recordAsEvent(id, name, user.getName());
             queue.refitNow(flag.locationId());
-            redirect.addFlashAttribute("flagSaved", messages.say("flash.flagEvent", e.name(), e.when(), e.effect()));
+            redirect.addFlashAttribute("flagSaved", messages.say("flash.flagEvent", e.name(), eventWords.when(e), eventWords.effect(e)));
         } catch (InvalidRequest e) {
             redirect.addFlashAttribute("flagProblems", e.problems());
         }

@@ -1,5 +1,6 @@
 package dev.tallyvane.forecasting.web;
 
+import dev.tallyvane.forecasting.EventWords;
 import dev.tallyvane.forecasting.LocationEvents;
 import dev.tallyvane.forecasting.RealChanges;
 import dev.tallyvane.forecasting.RefitQueue;
@@ -29,11 +30,13 @@ class EventsController {
     private final RealChanges changes;
     private final Messages messages;
     private final Times times;
+    private final EventWords eventWords;
 
     EventsController(LocationService locations, LocationEvents events, RefitQueue queue, RealChanges changes,
-            Messages messages, Times times) {
+            Messages messages, Times times, EventWords eventWords) {
         this.messages = messages;
         this.times = times;
+        this.eventWords = eventWords;
         this.changes = changes;
         this.locations = locations;
         this.events = events;
@@ -46,7 +49,7 @@ class EventsController {
         try {
             LocationEvents.Event e = events.add(l.getId(), l.getCode(), form, user.getName());
             queue.refitNow(l.getId());
-            redirect.addFlashAttribute("eventSaved", messages.say("flash.eventAdded", e.name(), e.when(), e.effect()));
+            redirect.addFlashAttribute("eventSaved", messages.say("flash.eventAdded", e.name(), eventWords.when(e), eventWords.effect(e)));
         } catch (InvalidRequest e) {
             redirect.addFlashAttribute("eventProblems", e.problems());
             redirect.addFlashAttribute("eventInput", form);
