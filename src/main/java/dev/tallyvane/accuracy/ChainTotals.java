@@ -34,7 +34,8 @@ import org.springframework.transaction.annotation.Transactional;
 public class ChainTotals {
 
     /** Scored periods looked back over, by granularity: about a year of weeks, three years of months. */
-    static final Map<Granularity, Integer> WINDOW = Map.of(Granularity.DAY, 91, Granularity.WEEK, 52, Granularity.MONTH, 36);
+    static final Map<Granularity, Integer> WINDOW = Map.of(Granularity.DAY, 91, Granularity.WEEK, 52, Granularity.MONTH, 36,
+            Granularity.QUARTER, 12);
 
     private final JdbcTemplate jdbc;
     private final IssuedForecasts issued;
@@ -54,7 +55,7 @@ public class ChainTotals {
     /**
      * One total.
      *
-     * @param granularity lower case: day, week or month
+     * @param granularity lower case: day, week, month or quarter
      * @param locations   the locations whose forecasts reach this period (of those asked for)
      */
     public record Total(String currency, String granularity, LocalDate period, int locations, double forecast,

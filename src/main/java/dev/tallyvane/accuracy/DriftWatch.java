@@ -147,6 +147,7 @@ class DriftWatch {
         String unit = switch (errors.get(0).granularity()) {
             case "DAY" -> run == 1 ? "day" : "days";
             case "WEEK" -> run == 1 ? "week" : "weeks";
+            case "QUARTER" -> run == 1 ? "quarter" : "quarters";
             default -> run == 1 ? "month" : "months";
         };
         String direction = sign > 0 ? "above" : "below";

@@ -30,7 +30,7 @@ import org.apache.commons.csv.CSVRecord;
  * 2 bad input or usage, 1 unexpected failure.
  *
  * <pre>
- * java -jar tallyvane.jar forecast --input sales.csv --horizon 12 [--granularity month|week|day]
+ * java -jar tallyvane.jar forecast --input sales.csv --horizon 12 [--granularity quarter|month|week|day]
  *     [--metric mse|mae|rmse|mape|smape|mase|wape] [--output forecast.csv] [--report leaderboard.csv]
  * </pre>
  */
@@ -40,7 +40,7 @@ public final class ForecastCommand {
 
     static final String USAGE = """
             usage: java -jar tallyvane.jar forecast --input sales.csv --horizon N
-                     [--granularity month|week|day] [--metric mse|mae|rmse|mape|smape|mase|wape|me]
+                     [--granularity quarter|month|week|day] [--metric mse|mae|rmse|mape|smape|mase|wape|me]
                      [--output forecast.csv] [--report leaderboard.csv]
                    java -jar tallyvane.jar forecast --help | --version
             input: CSV with header period,value; periods yyyy-MM (months), yyyy-Www (ISO weeks) or

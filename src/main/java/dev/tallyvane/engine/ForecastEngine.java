@@ -234,6 +234,7 @@ public final class ForecastEngine {
             case DAY -> "day";
             case WEEK -> "week";
             case MONTH -> "month";
+            case QUARTER -> "quarter";
         };
         return h == 1 ? base : base + "s";
     }

@@ -26,12 +26,13 @@ public record ForecastSettings(Granularity granularity, Integer horizon, Metric 
         metric = metric == null ? Metric.MSE : metric;
     }
 
-    /** The default horizon for a granularity: 28 days, 8 weeks, 12 months. */
+    /** The default horizon for a granularity: 28 days, 8 weeks, 12 months, 4 quarters (a year). */
     public static int defaultHorizon(Granularity g) {
         return switch (g) {
             case DAY -> 28;
             case WEEK -> 8;
             case MONTH -> 12;
+            case QUARTER -> 4;
         };
     }
 }

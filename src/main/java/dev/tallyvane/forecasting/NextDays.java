@@ -56,7 +56,7 @@ public class NextDays {
      * The next days of a location's measure.
      *
      * @param from          the first day (today at the location)
-     * @param granularity   the planning forecast's granularity, lower case (day, week or month)
+     * @param granularity   the planning forecast's granularity, lower case (day, week, month or quarter)
      * @param forecastId    the planning forecast the days come from
      * @param days          the days from {@code from} that the forecast reaches (empty when it cannot be split: see
      *                      {@code note})

@@ -35,7 +35,10 @@ class SeriesAssembler {
         this.jdbc = jdbc;
     }
 
-    /** The granularity to forecast at: the setting, else weeks when daily figures exist, else the coarsest stored. */
+    /**
+     * The granularity to forecast at: the setting, else weeks when daily or weekly figures exist, else
+     * months when monthly figures exist, else quarters when the books are kept by the quarter.
+     */
     Granularity granularity(Location location, String measure, ForecastSettings settings) {
         if (settings.granularity() != null) {
             return settings.granularity();
@@ -43,6 +46,9 @@ class SeriesAssembler {
         List<String> stored = figures.storedGranularities(location.getId(), measure);
         if (stored.contains(Granularity.DAY.name()) || stored.contains(Granularity.WEEK.name())) {
             return Granularity.WEEK;
+        }
+        if (!stored.contains(Granularity.MONTH.name()) && stored.contains(Granularity.QUARTER.name())) {
+            return Granularity.QUARTER;
         }
         return Granularity.MONTH;
     }

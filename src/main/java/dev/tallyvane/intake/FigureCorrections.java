@@ -58,7 +58,7 @@ public class FigureCorrections {
             granularity = Granularity.ofLabel(c.period() == null ? "" : c.period());
             period = granularity.parse(c.period().trim());
         } catch (IllegalArgumentException e) {
-            problems.add(new FieldProblem(null, "period", "'" + InvalidRequest.echo(c.period()) + "' is not a day, week or month"));
+            problems.add(new FieldProblem(null, "period", "'" + InvalidRequest.echo(c.period()) + "' is not a day, week, month or quarter"));
         }
         BigDecimal amount = amount(c.amount(), problems);
         String reason = c.reason() == null ? "" : c.reason().strip();

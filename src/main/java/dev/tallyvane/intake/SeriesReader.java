@@ -21,7 +21,11 @@ import org.springframework.transaction.annotation.Transactional;
  * <p><b>Roll-ups</b>: daily figures roll up into weeks (ISO, Monday start) and months on read. When
  * a figure was recorded directly at the requested granularity (a bookkeeper's monthly total) it
  * wins over the sum of the daily figures for that period: the bookkeeper's closed books are the
- * reference. Weeks do not roll up into months (a week can straddle two months).
+ * reference. Weeks do not roll up into months or quarters (a week can straddle two of them).
+ *
+ * <p>A <b>quarter</b> is read from its directly recorded total, else as the sum of its three months,
+ * each month being its recorded total or else the sum of its days (the same rule as above, one level
+ * up); it is complete when all three months are.
  */
 @Service
 public class SeriesReader {
@@ -62,6 +66,9 @@ public class SeriesReader {
     @Transactional(readOnly = true)
     public SeriesView read(Location location, String measure, Granularity granularity, Instant asOf, LocalDate from,
             LocalDate to) {
+        if (granularity == Granularity.QUARTER) {
+            return quarters(location, measure, asOf, from, to);
+        }
         EnumSet<Granularity> wanted = granularity == Granularity.DAY ? EnumSet.of(Granularity.DAY)
                 : EnumSet.of(granularity, Granularity.DAY);
         LocalDate dayFrom = from == null ? null : granularity.periodStart(from);
@@ -88,5 +95,31 @@ public class SeriesReader {
             }
         });
         return new SeriesView(location.getCode(), measure, granularity, asOf, new ArrayList<>(all.values()));
+    }
+
+    /** Quarters: recorded, else rolled up from the months (each recorded or rolled up from its days). */
+    private SeriesView quarters(Location location, String measure, Instant asOf, LocalDate from, LocalDate to) {
+        Granularity q = Granularity.QUARTER;
+        LocalDate qFrom = from == null ? null : q.periodStart(from);
+        LocalDate qTo = to == null ? null : q.periodEnd(q.periodStart(to));
+        Map<LocalDate, Point> all = new TreeMap<>();
+        for (FigureStore.Stored s : store.read(location.getId(), measure, EnumSet.of(q), asOf, qFrom, qTo)) {
+            all.put(s.periodStart(), new Point(s.periodStart(), q.label(s.periodStart()), s.amount().stripTrailingZeros(),
+                    "recorded", 0, true));
+        }
+        Map<LocalDate, BigDecimal> sums = new TreeMap<>();
+        Map<LocalDate, Integer> days = new TreeMap<>();
+        Map<LocalDate, Integer> completeMonths = new TreeMap<>();
+        for (Point m : read(location, measure, Granularity.MONTH, asOf, qFrom, qTo).points()) {
+            LocalDate start = q.periodStart(m.period());
+            if (!all.containsKey(start)) {
+                sums.merge(start, m.amount(), BigDecimal::add);
+                days.merge(start, m.days(), Integer::sum);
+                completeMonths.merge(start, m.complete() ? 1 : 0, Integer::sum);
+            }
+        }
+        sums.forEach((p, sum) -> all.put(p, new Point(p, q.label(p), sum.stripTrailingZeros(), "months", days.get(p),
+                completeMonths.get(p) == 3)));
+        return new SeriesView(location.getCode(), measure, q, asOf, new ArrayList<>(all.values()));
     }
 }

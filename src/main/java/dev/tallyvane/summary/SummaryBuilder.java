@@ -63,26 +63,35 @@ class SummaryBuilder {
         String measure = FigureRules.DEFAULT_MEASURE;
         List<WeeklySummary.Line> weekly = new ArrayList<>();
         List<WeeklySummary.Line> monthly = new ArrayList<>();
+        List<WeeklySummary.Line> quarterly = new ArrayList<>();
         List<Location> byWeek = new ArrayList<>();
         List<Location> byMonthList = new ArrayList<>();
+        List<Location> byQuarterList = new ArrayList<>();
         TreeMap<LocalDate, Double> chartActual = new TreeMap<>();
         String chartCurrency = null;
         boolean anyFigures = false;
+        // the last month and quarter that had ended by the end of the week
         LocalDate lastMonth = Granularity.MONTH.periodStart(weekStart.plusDays(7)).minusMonths(1);
+        LocalDate lastQuarter = Granularity.QUARTER.periodStart(weekStart.plusDays(7)).minusMonths(3);
         for (Location l : locations.all()) {
             if (!l.isActive()) {
                 continue;
             }
-            boolean byMonth = issued.latest(l.getId(), measure)
-                    .map(f -> Granularity.MONTH.name().equals(f.granularity())).orElse(false);
-            Granularity g = byMonth ? Granularity.MONTH : Granularity.WEEK;
-            LocalDate period = byMonth ? lastMonth : weekStart;
+            Granularity g = issued.latest(l.getId(), measure).map(f -> Granularity.valueOf(f.granularity()))
+                    .filter(f -> f == Granularity.MONTH || f == Granularity.QUARTER).orElse(Granularity.WEEK);
+            boolean byMonth = g != Granularity.WEEK;
+            LocalDate period = g == Granularity.MONTH ? lastMonth : g == Granularity.QUARTER ? lastQuarter : weekStart;
             List<SeriesReader.Point> points = reader.read(l, measure, g, null,
                     byMonth ? period : weekStart.minusWeeks(CHART_WEEKS_BACK - 1), period).points();
             BigDecimal actual = points.stream().filter(p -> p.period().equals(period)).map(SeriesReader.Point::amount)
                     .findFirst().orElse(null);
             anyFigures |= actual != null;
             WeeklySummary.Line line = line(l, measure, g, period, actual);
+            if (g == Granularity.QUARTER) {
+                quarterly.add(line);
+                byQuarterList.add(l);
+                continue;
+            }
             if (byMonth) {
                 monthly.add(line);
                 byMonthList.add(l);
@@ -100,6 +109,7 @@ class SummaryBuilder {
         List<WeeklySummary.Line> totals = new ArrayList<>();
         totals.addAll(chain(measure, Granularity.WEEK, weekStart, weekly, byWeek));
         totals.addAll(chain(measure, Granularity.MONTH, lastMonth, monthly, byMonthList));
+        totals.addAll(chain(measure, Granularity.QUARTER, lastQuarter, quarterly, byQuarterList));
         String currency = chartCurrency;
         LocalDate nextWeek = weekStart.plusWeeks(1);
         List<ChainTotals.Total> ahead = chainTotals.ahead(measure, byWeek).stream()
@@ -110,7 +120,7 @@ class SummaryBuilder {
                 new ArrayList<>(chartActual.values()), ahead.stream().map(ChainTotals.Total::period).toList(),
                 ahead.stream().map(ChainTotals.Total::forecast).toList(),
                 ahead.stream().map(ChainTotals.Total::lo80).toList(), ahead.stream().map(ChainTotals.Total::hi80).toList());
-        return new WeeklySummary(weekStart, weekly, monthly, totals, chart, anyFigures);
+        return new WeeklySummary(weekStart, weekly, monthly, quarterly, totals, chart, anyFigures);
     }
 
     /**

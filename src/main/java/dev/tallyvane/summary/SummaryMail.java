@@ -76,9 +76,19 @@ class SummaryMail {
             return d == null ? "" : DateTimeFormatter.ofPattern("LLLL yyyy", locale).format(d);
         }
 
-        /** "next week" or the month's name, for the line's next period. */
+        /** "Q4 2026" (so written in English and German alike). */
+        public String quarter(java.time.LocalDate d) {
+            return d == null ? "" : "Q" + ((d.getMonthValue() - 1) / 3 + 1) + " " + d.getYear();
+        }
+
+        /** A line's period in words: the month's name, the quarter, or nothing for a week. */
+        public String period(WeeklySummary.Line l, java.time.LocalDate d) {
+            return l.monthly() ? month(d) : l.quarterly() ? quarter(d) : "";
+        }
+
+        /** "next week", the month's name or the quarter, for the line's next period. */
         String next(WeeklySummary.Line l) {
-            return l.monthly() ? month(l.nextPeriod()) : say("mail.nextWeek");
+            return l.weekly() ? say("mail.nextWeek") : period(l, l.nextPeriod());
         }
     }
 
@@ -111,7 +121,7 @@ class SummaryMail {
             t.append(fmt.say("mail.t.noFigures")).append("\n\n");
         }
         for (WeeklySummary.Line c : s.chain()) {
-            t.append(fmt.say("mail.all")).append(c.monthly() ? ", " + fmt.month(c.period()) : "").append(": ");
+            t.append(fmt.say("mail.all")).append(c.weekly() ? "" : ", " + fmt.period(c, c.period())).append(": ");
             figures(t, fmt, c);
             t.append("; ").append(fmt.next(c)).append(" ");
             range(t, fmt, c);
@@ -129,6 +139,12 @@ class SummaryMail {
                 location(t, fmt, l);
             }
         }
+        if (!s.quarterly().isEmpty()) {
+            t.append("\n").append(fmt.say("mail.quarterly")).append(":\n");
+            for (WeeklySummary.Line l : s.quarterly()) {
+                location(t, fmt, l);
+            }
+        }
         t.append("\n").append(fmt.say("mail.t.estimates")).append("\n");
         t.append(fmt.say("mail.t.dashboard", properties.dashboardUrl())).append("\n");
         t.append(fmt.say("mail.t.stop", unsubscribeUrl)).append("\n");
@@ -137,8 +153,8 @@ class SummaryMail {
 
     private static void location(StringBuilder t, Formats fmt, WeeklySummary.Line l) {
         t.append(l.code()).append(" ").append(l.name()).append(": ");
-        if (l.monthly()) {
-            t.append(fmt.month(l.period())).append(" ");
+        if (!l.weekly()) {
+            t.append(fmt.period(l, l.period())).append(" ");
         }
         if (l.actual() == null) {
             t.append(l.lastFigureOn() == null ? fmt.say("mail.t.noFiguresYet")

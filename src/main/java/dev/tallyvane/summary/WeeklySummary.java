@@ -10,12 +10,13 @@ import java.util.List;
  * @param weekStart   Monday of the week covered
  * @param locations   one line per active location forecast by the week (daily or weekly figures)
  * @param monthly     one line per active location forecast by the month (monthly figures only)
+ * @param quarterly   one line per active location forecast by the quarter (books kept by the quarter)
  * @param chain       the chain's totals per currency and granularity (weeks first)
  * @param chart       the chain total's recent weeks and the weeks ahead, for the chart
  * @param hasFigures  false when no location has any figure for the week
  */
-public record WeeklySummary(LocalDate weekStart, List<Line> locations, List<Line> monthly, List<Line> chain, Chart chart,
-        boolean hasFigures) {
+public record WeeklySummary(LocalDate weekStart, List<Line> locations, List<Line> monthly, List<Line> quarterly,
+        List<Line> chain, Chart chart, boolean hasFigures) {
 
     public LocalDate weekEnd() {
         return weekStart.plusDays(6);
@@ -24,8 +25,9 @@ public record WeeklySummary(LocalDate weekStart, List<Line> locations, List<Line
     /**
      * One location (or the chain) at its own granularity.
      *
-     * @param granularity   week or month
-     * @param period        the first day of the last period reported on (last week, or the last month ended)
+     * @param granularity   week, month or quarter
+     * @param period        the first day of the last period reported on (last week, or the last month or
+     *                      quarter ended)
      * @param actual        that period's actual (null when no figures)
      * @param forecast      what was forecast for it before it began (null when none)
      * @param nextPeriod    the first day of the period after it
@@ -40,6 +42,14 @@ public record WeeklySummary(LocalDate weekStart, List<Line> locations, List<Line
 
         public boolean monthly() {
             return "month".equals(granularity);
+        }
+
+        public boolean quarterly() {
+            return "quarter".equals(granularity);
+        }
+
+        public boolean weekly() {
+            return "week".equals(granularity);
         }
 
         public BigDecimal error() {

@@ -64,6 +64,26 @@ class ForecastCommandTests {
     }
 
     @Test
+    void quarterlyFiguresAreForecastByTheQuarter() throws IOException {
+        StringBuilder sb = new StringBuilder("period,value\n");
+        double[] season = {0.8, 1.0, 0.95, 1.3};
+        for (int t = 0; t < 16; t++) {
+            sb.append(String.format(java.util.Locale.ROOT, "%d-Q%d,%.2f%n", 2022 + t / 4, t % 4 + 1,
+                    (50_000 + 500 * t) * season[t % 4]));
+        }
+        Path p = dir.resolve("quarters.csv");
+        Files.writeString(p, sb.toString());
+        Run r = run("--input", p.toString(), "--horizon", "4");
+        assertThat(r.code()).as(r.err()).isZero();
+        List<CSVRecord> rows = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).get()
+                .parse(new java.io.StringReader(r.out())).getRecords();
+        assertThat(rows).extracting(row -> row.get("period")).containsExactly("2026-Q1", "2026-Q2", "2026-Q3", "2026-Q4");
+        // the season of 4: the fourth quarter above the third
+        assertThat(Double.parseDouble(rows.get(3).get("forecast"))).isGreaterThan(1.2 * Double.parseDouble(rows.get(2)
+                .get("forecast")));
+    }
+
+    @Test
     void writesForecastCsvToStdoutAndNamesTheChosenModelOnStderr() throws IOException {
         Run r = run("--input", monthlyCsv(36).toString(), "--horizon", "12");
         assertThat(r.code()).isZero();

@@ -145,7 +145,7 @@ class FigureCorrectionIntegrationTests {
                 + "nothing to correct");
         assertThat(page(correct(bookkeeper, day.toString(), "102.123", "typo"))).contains("decimals");
         assertThat(page(correct(bookkeeper, "2026-13-45", "1", "typo"))).contains("<strong>period</strong>: "
-                + "<span>&#39;2026-13-45&#39; is not a day, week or month");
+                + "<span>&#39;2026-13-45&#39; is not a day, week, month or quarter");
         assertThat(revisions(day)).hasSize(1);
 
         // a viewer may read the page but not correct

@@ -11,17 +11,20 @@ import java.util.regex.Pattern;
 
 /**
  * The length of one period of a regular series. A period is identified by the date it starts on:
- * the day itself, the Monday of an ISO-8601 week, or the first of a month.
+ * the day itself, the Monday of an ISO-8601 week, the first of a month, or the first day of a
+ * calendar quarter (1 January, 1 April, 1 July, 1 October).
  *
- * <p>Text labels (used by the one-shot command and uploads): {@code yyyy-MM-dd} for days,
- * ISO week {@code yyyy-'W'ww} for weeks, {@code yyyy-MM} for months.
+ * <p>Text labels (used by the API, uploads and the one-shot command): {@code yyyy-MM-dd} for days,
+ * ISO week {@code yyyy-'W'ww} for weeks, {@code yyyy-MM} for months, {@code yyyy-'Q'q} for quarters
+ * (2026-Q4 is October to December 2026).
  */
 public enum Granularity {
 
-    DAY(7), WEEK(52), MONTH(12);
+    DAY(7), WEEK(52), MONTH(12), QUARTER(4);
 
     private static final Pattern WEEK_LABEL = Pattern.compile("(\\d{4})-W(\\d{2})");
     private static final Pattern MONTH_LABEL = Pattern.compile("(\\d{4})-(\\d{2})");
+    private static final Pattern QUARTER_LABEL = Pattern.compile("(\\d{4})-Q([1-4])");
     private static final Pattern DAY_LABEL = Pattern.compile("\\d{4}-\\d{2}-\\d{2}");
 
     private final int seasonalPeriod;
@@ -30,7 +33,7 @@ public enum Granularity {
         this.seasonalPeriod = seasonalPeriod;
     }
 
-    /** The usual seasonal cycle in periods: 7 days a week, 52 weeks a year, 12 months a year. */
+    /** The usual seasonal cycle in periods: 7 days a week, 52 weeks, 12 months or 4 quarters a year. */
     public int seasonalPeriod() {
         return seasonalPeriod;
     }
@@ -41,6 +44,7 @@ public enum Granularity {
             case DAY -> date;
             case WEEK -> date.with(TemporalAdjusters.previousOrSame(DayOfWeek.MONDAY));
             case MONTH -> date.withDayOfMonth(1);
+            case QUARTER -> LocalDate.of(date.getYear(), 3 * ((date.getMonthValue() - 1) / 3) + 1, 1);
         };
     }
 
@@ -50,6 +54,7 @@ public enum Granularity {
             case DAY -> start.plusDays(steps);
             case WEEK -> start.plusWeeks(steps);
             case MONTH -> start.plusMonths(steps);
+            case QUARTER -> start.plusMonths(3 * steps);
         };
     }
 
@@ -64,6 +69,7 @@ public enum Granularity {
             case DAY -> ChronoUnit.DAYS.between(from, to);
             case WEEK -> ChronoUnit.WEEKS.between(from, to);
             case MONTH -> ChronoUnit.MONTHS.between(from, to);
+            case QUARTER -> ChronoUnit.MONTHS.between(from, to) / 3;
         };
     }
 
@@ -79,6 +85,7 @@ public enum Granularity {
             case WEEK -> String.format(Locale.ROOT, "%04d-W%02d",
                     start.get(IsoFields.WEEK_BASED_YEAR), start.get(IsoFields.WEEK_OF_WEEK_BASED_YEAR));
             case MONTH -> String.format(Locale.ROOT, "%04d-%02d", start.getYear(), start.getMonthValue());
+            case QUARTER -> String.format(Locale.ROOT, "%04d-Q%d", start.getYear(), (start.getMonthValue() - 1) / 3 + 1);
         };
     }
 
@@ -116,6 +123,12 @@ public enum Granularity {
                         return LocalDate.of(Integer.parseInt(m.group(1)), Integer.parseInt(m.group(2)), 1);
                     }
                 }
+                case QUARTER -> {
+                    Matcher m = QUARTER_LABEL.matcher(text.toUpperCase(Locale.ROOT));
+                    if (m.matches()) {
+                        return LocalDate.of(Integer.parseInt(m.group(1)), 3 * Integer.parseInt(m.group(2)) - 2, 1);
+                    }
+                }
             }
         } catch (java.time.DateTimeException e) {
             throw new IllegalArgumentException("'" + label + "' is not a valid " + name().toLowerCase(Locale.ROOT)
@@ -131,6 +144,7 @@ public enum Granularity {
             case DAY -> "yyyy-MM-dd, e.g. 2026-03-09";
             case WEEK -> "yyyy-Www, e.g. 2026-W11";
             case MONTH -> "yyyy-MM, e.g. 2026-03";
+            case QUARTER -> "yyyy-Qn, e.g. 2026-Q4";
         };
     }
 
@@ -146,7 +160,11 @@ public enum Granularity {
         if (MONTH_LABEL.matcher(text).matches()) {
             return MONTH;
         }
-        throw new IllegalArgumentException("'" + label + "' is not a period label (yyyy-MM-dd, yyyy-Www or yyyy-MM)");
+        if (QUARTER_LABEL.matcher(text.toUpperCase(Locale.ROOT)).matches()) {
+            return QUARTER;
+        }
+        throw new IllegalArgumentException("'" + label + "' is not a period label (yyyy-MM-dd, yyyy-Www, yyyy-MM or "
+                + "yyyy-Qn)");
     }
 
     /** Case-insensitive lookup by name, naming the accepted values when the name is unknown. */
@@ -156,6 +174,6 @@ public enum Granularity {
                 return g;
             }
         }
-        throw new IllegalArgumentException("unknown granularity '" + name + "'; use day, week or month");
+        throw new IllegalArgumentException("unknown granularity '" + name + "'; use day, week, month or quarter");
     }
 }

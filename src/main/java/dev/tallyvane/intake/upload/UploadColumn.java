@@ -11,34 +11,31 @@ import java.util.stream.Collectors;
 
 /**
  * The columns of an upload, each specified once: its name, the other names it is known by, whether
- * a file must have it, what it holds, the example the templates show, and how its cell is read. The parser, the
- * templates, the upload page and the messages about columns all read this list.
+ * a file must have it, the example the templates show, and how its cell is read (what it holds, in
+ * words, is the bundles' {@code up.column.<name>}). The parser, the templates, the upload page and
+ * the messages about columns all read this list.
  */
 public enum UploadColumn {
 
-    LOCATION("location", List.of(), true, "the location's code, e.g. HARBOUR", List.of("HARBOUR", "HARBOUR"),
-            UploadParser::location),
-    PERIOD("period", List.of("date"), true, "a day (2026-11-30 or 30/11/2026), an ISO week (2026-W48) or a month "
-            + "(2026-11)", List.of(LocalDate.of(2026, 11, 1), LocalDate.of(2026, 11, 2)), UploadParser::period),
-    AMOUNT("amount", List.of(), true, "the figure, with at most the currency's decimals; currency signs and "
-            + "thousands marks are fine", List.of(new BigDecimal("1234.50"), new BigDecimal("987.00")),
+    LOCATION("location", List.of(), true, List.of("HARBOUR", "HARBOUR"), UploadParser::location),
+    PERIOD("period", List.of("date"), true, List.of(LocalDate.of(2026, 11, 1), LocalDate.of(2026, 11, 2)),
+            UploadParser::period),
+    AMOUNT("amount", List.of(), true, List.of(new BigDecimal("1234.50"), new BigDecimal("987.00")),
             UploadParser::amount),
-    MEASURE("measure", List.of(), false, "what the figure counts (default " + FigureRules.DEFAULT_MEASURE + ")",
-            List.of(FigureRules.DEFAULT_MEASURE, FigureRules.DEFAULT_MEASURE), UploadParser::measure);
+    MEASURE("measure", List.of(), false, List.of(FigureRules.DEFAULT_MEASURE, FigureRules.DEFAULT_MEASURE),
+            UploadParser::measure);
 
     private final String label;
     private final List<String> aliases;
     private final boolean required;
-    private final String description;
     private final List<Object> examples;
     private final UploadParser.CellParser parser;
 
-    UploadColumn(String label, List<String> aliases, boolean required, String description, List<Object> examples,
+    UploadColumn(String label, List<String> aliases, boolean required, List<Object> examples,
             UploadParser.CellParser parser) {
         this.label = label;
         this.aliases = aliases;
         this.required = required;
-        this.description = description;
         this.examples = examples;
         this.parser = parser;
     }
@@ -59,10 +56,6 @@ public enum UploadColumn {
 
     public boolean required() {
         return required;
-    }
-
-    public String description() {
-        return description;
     }
 
     /** The template's example values, one per example row (text, a date or an amount). */

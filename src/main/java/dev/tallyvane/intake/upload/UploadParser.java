@@ -28,6 +28,8 @@ final class UploadParser {
 
     private static final Pattern DMY = Pattern.compile("(\\d{1,2})[./-](\\d{1,2})[./-](\\d{4})");
     private static final Pattern MY = Pattern.compile("(\\d{1,2})[./-](\\d{4})");
+    /** A quarter as bookkeepers write it: "Q4 2026", "Q4/2026", "q4-2026". */
+    private static final Pattern QY = Pattern.compile("[Qq]([1-4])[\\s./-]*(\\d{4})");
     private static final Pattern NOISE = Pattern.compile("[\\s\\u00A0\\u202F'’]|[^\\d.,()+\\-]");
 
     /**
@@ -286,6 +288,11 @@ final class UploadParser {
                     return null;
                 }
             }
+            Matcher qy = QY.matcher(s);
+            if (qy.matches()) {
+                return new Period(Granularity.QUARTER, LocalDate.of(Integer.parseInt(qy.group(2)),
+                        3 * Integer.parseInt(qy.group(1)) - 2, 1));
+            }
             Matcher my = MY.matcher(s);
             if (my.matches()) {
                 int month = Integer.parseInt(my.group(1));
@@ -294,7 +301,7 @@ final class UploadParser {
                 }
             }
             problems.add(new FieldProblem(n, "period", "'" + s + "' is not a period; write 2026-11-30, 30/11/2026, "
-                    + "2026-11 (a month) or 2026-W48 (a week)"));
+                    + "2026-11 (a month), 2026-W48 (a week) or 2026-Q4 (a quarter)"));
             return null;
         }
     }

@@ -53,6 +53,18 @@ class UploadParserTests {
     }
 
     @Test
+    void quartersAsBookkeepersWriteThem() {
+        UploadParser.Parsed p = csv("location,period,amount\nA,2026-Q3,9000\nA,Q4 2026,9100\nA,q1/2027,9200\n"
+                + "A,Q5 2026,1\n", UploadOptions.AUTO);
+        assertThat(p.figures()).extracting(FigureInput::granularity).containsOnly(dev.tallyvane.engine.series.Granularity
+                .QUARTER);
+        assertThat(p.figures()).extracting(FigureInput::periodStart).containsExactly(LocalDate.of(2026, 7, 1),
+                LocalDate.of(2026, 10, 1), LocalDate.of(2027, 1, 1));
+        assertThat(p.problems()).singleElement().satisfies(pr -> assertThat(pr.reason())
+                .contains("'Q5 2026' is not a period").contains("2026-Q4 (a quarter)"));
+    }
+
+    @Test
     void amountsInManyWritings() {
         assertThat(UploadParser.parseAmount("$1,234.56", UploadOptions.NumberStyle.POINT)).isEqualByComparingTo("1234.56");
         assertThat(UploadParser.parseAmount("1 234,56", UploadOptions.NumberStyle.COMMA)).isEqualByComparingTo("1234.56");

@@ -1,0 +1,46 @@
+package dev.tallyvane.engine.series;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import java.time.LocalDate;
+import org.junit.jupiter.api.Test;
+
+/** Calendar quarters beside days, weeks and months (quarters as calendar quarters: common practice). */
+class GranularityTests {
+
+    final Granularity q = Granularity.QUARTER;
+
+    @Test
+    void aQuarterStartsOnTheFirstOfJanuaryAprilJulyOrOctober() {
+        assertThat(q.periodStart(LocalDate.of(2026, 11, 30))).isEqualTo(LocalDate.of(2026, 10, 1));
+        assertThat(q.periodStart(LocalDate.of(2026, 3, 31))).isEqualTo(LocalDate.of(2026, 1, 1));
+        assertThat(q.periodStart(LocalDate.of(2026, 4, 1))).isEqualTo(LocalDate.of(2026, 4, 1));
+        assertThat(q.periodEnd(LocalDate.of(2026, 10, 1))).isEqualTo(LocalDate.of(2026, 12, 31));
+        assertThat(q.periodEnd(LocalDate.of(2024, 1, 1))).isEqualTo(LocalDate.of(2024, 3, 31));
+        assertThat(q.isPeriodStart(LocalDate.of(2026, 7, 1))).isTrue();
+        assertThat(q.isPeriodStart(LocalDate.of(2026, 8, 1))).isFalse();
+        assertThat(q.seasonalPeriod()).isEqualTo(4);
+    }
+
+    @Test
+    void stepsAndDistancesCountWholeQuarters() {
+        assertThat(q.plus(LocalDate.of(2026, 10, 1), 1)).isEqualTo(LocalDate.of(2027, 1, 1));
+        assertThat(q.plus(LocalDate.of(2026, 10, 1), -4)).isEqualTo(LocalDate.of(2025, 10, 1));
+        assertThat(q.periodsBetween(LocalDate.of(2023, 10, 1), LocalDate.of(2026, 7, 1))).isEqualTo(11);
+    }
+
+    @Test
+    void labelsAreYearDashQAndTheQuartersNumber() {
+        assertThat(q.label(LocalDate.of(2026, 10, 1))).isEqualTo("2026-Q4");
+        assertThat(q.label(LocalDate.of(2027, 1, 1))).isEqualTo("2027-Q1");
+        assertThat(q.parse("2026-Q3")).isEqualTo(LocalDate.of(2026, 7, 1));
+        assertThat(q.parse(" 2026-q2 ")).isEqualTo(LocalDate.of(2026, 4, 1));
+        assertThat(Granularity.ofLabel("2026-Q4")).isEqualTo(Granularity.QUARTER);
+        assertThat(Granularity.ofLabel("2026-11")).isEqualTo(Granularity.MONTH);
+        assertThat(Granularity.of("Quarter")).isEqualTo(Granularity.QUARTER);
+        assertThatThrownBy(() -> q.parse("2026-Q5")).hasMessageContaining("'2026-Q5' is not a quarter period")
+                .hasMessageContaining("2026-Q4");
+        assertThatThrownBy(() -> Granularity.ofLabel("2026-Q0")).hasMessageContaining("yyyy-Qn");
+    }
+}
