@@ -47,7 +47,8 @@ import org.apache.commons.math3.distribution.TDistribution;
  * ({@link Candidate#forOrigins}); the chosen candidate is then fitted afresh on all the data.
  *
  * <p><b>Intervals</b>: the model's analytic σ_h where it has one (normal, or the t distribution where the
- * model states degrees of freedom; log-normal for models of the logarithms); otherwise empirical from the rolling-origin errors: σ_h =
+ * model states degrees of freedom; log-normal for models of the logarithms), scaled by how its own
+ * rolling-origin errors compare with it ({@link #calibration}); otherwise empirical from the rolling-origin errors: σ_h =
  * RMSE of the step-h errors (made non-decreasing in h), with the t distribution on as many degrees of
  * freedom as there were errors at steps 1..h (the non-decreasing σ_h rests on all of them; counting
  * only the step-h errors gave a far step with one error a t quantile on one degree of freedom and a
@@ -58,7 +59,7 @@ import org.apache.commons.math3.distribution.TDistribution;
 public final class ForecastEngine {
 
     /** Version of the engine, recorded with every issued forecast. */
-    public static final String VERSION = "1.1";
+    public static final String VERSION = "1.2";
 
     private static final int MINIMUM_TRAINING = 4;
     /** How many of the best candidates the combination averages. */
@@ -257,6 +258,7 @@ public final class ForecastEngine {
             RollingOriginBacktest.Outcome outcome, IntervalSource source) {
         int h = pf.horizon();
         List<ForecastPoint> out = new ArrayList<>(h);
+        double[] calibration = source == IntervalSource.ANALYTIC ? calibration(pf, outcome) : null;
         double runningSd = 0;
         double lastDf = 1;
         int errorsSoFar = 0;
@@ -273,7 +275,9 @@ public final class ForecastEngine {
                 double df = pf.degreesOfFreedom();
                 double[] i80 = pf.interval(step, quantile(0.90, df));
                 double[] i95 = pf.interval(step, quantile(0.975, df));
-                out.add(new ForecastPoint(period, label, mean, i80[0], i80[1], i95[0], i95[1], false));
+                double k = calibration == null ? 1 : calibration[step - 1];
+                out.add(new ForecastPoint(period, label, mean, mean - k * (mean - i80[0]), mean + k * (i80[1] - mean),
+                        mean - k * (mean - i95[0]), mean + k * (i95[1] - mean), false));
                 continue;
             }
             double r = outcome.rmseAt(step);
@@ -292,6 +296,52 @@ public final class ForecastEngine {
                     mean - z95 * runningSd, mean + z95 * runningSd, false));
         }
         return out;
+    }
+
+    /** Prior weight, in errors, of the model's own σ_h against the backtest's (see {@link #calibration}). */
+    static final double CALIBRATION_PRIOR = 40;
+
+    /**
+     * How much the model's formula intervals are widened at each step so that they keep their promise
+     * out of sample: a scale calibration from the chosen method's own rolling-origin
+     * errors. Each step-s error is standardised by the formula's σ_s (read off its 80% interval,
+     * σ_s = (hi₈₀ − lo₈₀) / (2·q₀.₉₀)); the ratios are pooled over steps 1..h and shrunk towards 1
+     * with a prior weight of {@value #CALIBRATION_PRIOR} errors:
+     *
+     * <pre>k_h² = (n₀ + Σ_{s≤h} Σ e²/σ_s²) / (n₀ + N_{≤h}),  k_h ≥ 1</pre>
+     *
+     * The half-widths about the forecast are multiplied by k_h (both sides, so log-normal intervals
+     * keep their shape). Only widened, never narrowed: formula intervals leave out the uncertainty of
+     * estimated parameters and of the choice of model, so they err on the narrow side; narrowing on a
+     * few errors that happened to be small cost the random walk 3 points of its 80% coverage. Pooling over steps lets far steps with one or two errors borrow from the
+     * near ones; the shrinkage keeps a handful of errors from moving a formula that is right (a
+     * precision-weighted mean of two variance estimates, as in a conjugate normal–inverse-gamma update:
+     * from memory; a scale calibration from out-of-sample standardised errors is common practice).
+     * Null when there is no backtest or no usable error.
+     */
+    static double[] calibration(PointForecast pf, RollingOriginBacktest.Outcome outcome) {
+        if (outcome == null) {
+            return null;
+        }
+        int h = pf.horizon();
+        double z80 = quantile(0.90, pf.degreesOfFreedom());
+        double[] k = new double[h];
+        double ratios = 0;
+        double errors = 0;
+        for (int step = 1; step <= h; step++) {
+            if (step <= outcome.errorsByStep().length) {
+                double[] i80 = pf.interval(step, z80);
+                double sd = (i80[1] - i80[0]) / (2 * z80);
+                double rmse = outcome.rmseAt(step);
+                int n = outcome.countAt(step);
+                if (n > 0 && Double.isFinite(rmse) && sd > 0 && Double.isFinite(sd)) {
+                    ratios += n * rmse * rmse / (sd * sd);
+                    errors += n;
+                }
+            }
+            k[step - 1] = Math.max(1, Math.sqrt((CALIBRATION_PRIOR + ratios) / (CALIBRATION_PRIOR + errors)));
+        }
+        return errors == 0 ? null : k;
     }
 
     static double quantile(double p, double df) {

@@ -54,6 +54,9 @@ class IntervalCoverageTests {
     }
 
     private static void assertCalibrated(Coverage c) {
+        System.out.printf(java.util.Locale.ROOT, "BENCH interval coverage | %s | 80%% %.1f%% | 95%% %.1f%%%n",
+                StackWalker.getInstance().walk(f -> f.skip(1).findFirst().orElseThrow().getMethodName()), c.c80(),
+                c.c95());
         assertThat(c.c95()).as("95%% interval coverage (80%%: %.2f)", c.c80()).isBetween(92.0, 98.0);
         assertThat(c.c80()).as("80%% interval coverage").isBetween(77.0, 83.0);
     }
