@@ -115,9 +115,13 @@ public final class ForecastEngine {
                     step, Math.max(MINIMUM_TRAINING, seasonalNeeds));
             if (shorter.originCount() > 0) {
                 backtest = shorter;
-                notes.add(String.format(Locale.ROOT, "%d periods are too few to test seasonal methods %d periods "
-                        + "ahead: all methods were compared on up to %d periods ahead instead", n, h,
-                        shorter.longestLeadTime(n)));
+                int lead = shorter.longestLeadTime(n);
+                notes.add(lead < h
+                        ? String.format(Locale.ROOT, "%d periods are too few to test seasonal methods %d periods "
+                                + "ahead: all methods were compared on up to %d periods ahead instead", n, h, lead)
+                        : String.format(Locale.ROOT, "%d periods: the rolling origins start after the first %d, "
+                                + "which seasonal methods need to learn from, and the latest origins are scored on the "
+                                + "periods left after them", n, Math.max(MINIMUM_TRAINING, seasonalNeeds)));
             }
         }
 

@@ -71,6 +71,21 @@ class ForecastEngineTests {
         assertThat(noisy.leaderboard()).anyMatch(e -> e.key().equals("combo"));
     }
 
+    /** Twelve quarters, four ahead: the note must not say four ahead was too far and then compare four ahead. */
+    @Test
+    void theNoteOnAShortQuarterlySeriesSaysWhatWasDone() {
+        double[] season = {0.8, 1.0, 0.95, 1.3};
+        double[] y = new double[12];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = (60_000 + 800 * t) * season[t % 4];
+        }
+        ForecastResult r = ForecastEngine.forecast(new Series(Granularity.QUARTER, java.time.LocalDate.of(2023, 10, 1),
+                y), ForecastRequest.of(4));
+        assertThat(r.notes()).noneMatch(n -> n.contains("too few to test seasonal methods 4 periods ahead"));
+        assertThat(r.notes()).anyMatch(n -> n.startsWith("12 periods: the rolling origins start after the first"));
+        assertThat(r.reason()).contains("4 quarters ahead");
+    }
+
     @Test
     void theNoteAboutSeasonalCandidatesIsTrueOfTheLeaderboard() {
         java.util.function.Predicate<String> seasonal = k -> k.equals("snaive") || k.endsWith("s") && k.startsWith("poly");
