@@ -165,6 +165,12 @@ class OverviewIntegrationTests {
                 .contains("Prognoseeinstellungen").contains("Zeitraum ab").contains("Ereignisse")
                 .contains("Drift-Warnungen").contains("Neueste Zahlen")
                 .doesNotContain("Accuracy so far").doesNotContain("Forecast settings").doesNotContain("Latest figures");
+        // terms inside a sentence read as part of it, still with their explanation on hover or focus
+        assertThat(location).contains(">Prognoseintervall</a>").contains(">rollierendem Ursprung</a>");
+        String english = mvc.perform(get("/locations/L001").with(owner).header("Accept-Language", "en-GB")).andReturn()
+                .getResponse().getContentAsString();
+        assertThat(english).contains(">prediction interval</a>")
+                .contains(">out of sample</a>").contains(">rolling origin</a>");
         java.util.Map<String, String> pages = java.util.Map.of("/uploads", "Zahlen hochladen", "/tokens",
                 "Token erstellen", "/users", "Einen Benutzer anlegen", "/measures", "Eine Kennzahl anlegen", "/email",
                 "Wöchentliche Zusammenfassung per E-Mail", "/account/password", "Mein Passwort ändern", "/audit",
