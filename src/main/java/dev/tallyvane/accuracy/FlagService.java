@@ -5,7 +5,6 @@ import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.forecasting.LevelShifts;
 import dev.tallyvane.forecasting.LocationEvents;
 import dev.tallyvane.forecasting.RealChanges;
-import dev.tallyvane.engine.ShiftTrial;
 import dev.tallyvane.forecasting.EventWords;
 import dev.tallyvane.system.InvalidRequest;
 import dev.tallyvane.system.Messages;
@@ -164,7 +163,8 @@ public class FlagService {
                     + (t.startAfter() ? "starts" : "kept"), times.day(shift.get().from(), locale), t.origins(), units,
                     Math.round(Math.abs(100 * t.change())));
         } else if (shift.isPresent()) {
-            did = messages.in(locale, "advice.shift", times.day(shift.get().from(), locale), ShiftTrial.MIN_AFTER, units);
+            did = messages.in(locale, "advice.shift", times.day(shift.get().from(), locale),
+                    shifts.untilTried(g, locale));
         } else {
             did = messages.in(locale, "advice.refits");
         }

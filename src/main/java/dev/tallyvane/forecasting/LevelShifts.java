@@ -1,10 +1,13 @@
 package dev.tallyvane.forecasting;
 
 import dev.tallyvane.engine.ShiftTrial;
+import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.system.Messages;
 import java.sql.Timestamp;
 import java.time.Clock;
 import java.time.Instant;
 import java.time.LocalDate;
+import java.util.Locale;
 import java.util.Optional;
 import org.springframework.beans.factory.ObjectProvider;
 import org.springframework.jdbc.core.JdbcTemplate;
@@ -29,9 +32,12 @@ public class LevelShifts {
     private final ObjectProvider<RefitQueue> refits;
     private final SeriesStateStore state;
     private final Clock clock;
+    private final Messages messages;
 
     /** The queue is looked up when needed: the re-fit it runs reads this service. */
-    LevelShifts(JdbcTemplate jdbc, ObjectProvider<RefitQueue> refits, SeriesStateStore state, Clock clock) {
+    LevelShifts(JdbcTemplate jdbc, ObjectProvider<RefitQueue> refits, SeriesStateStore state, Clock clock,
+            Messages messages) {
+        this.messages = messages;
         this.jdbc = jdbc;
         this.refits = refits;
         this.state = state;
@@ -59,10 +65,14 @@ public class LevelShifts {
         }
     }
 
-    /** What the re-fits do with a shift while too few periods follow it, in plain words ("once 6 complete weeks …"). */
-    public static String untilTried(String unit) {
-        return "once " + ShiftTrial.MIN_AFTER + " complete " + unit + "s follow it, each re-fit tries starting the models "
-                + "there and keeps that only if it forecasts better out of sample.";
+    /**
+     * What the re-fits do with a shift while too few periods follow it, in plain words ("once 6 complete
+     * weeks …"), in the given language: the forecast's notes (English, stored with it) and the flag's
+     * advice (the reader's) say it with the same sentence.
+     */
+    public String untilTried(Granularity granularity, Locale locale) {
+        return messages.in(locale, "shift.untilTried", ShiftTrial.MIN_AFTER,
+                messages.in(locale, "granularity." + granularity.name().toLowerCase(Locale.ROOT) + ".many"));
     }
 
     @Transactional(readOnly = true)

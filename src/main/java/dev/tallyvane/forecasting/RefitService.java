@@ -23,6 +23,7 @@ import java.time.LocalDate;
 import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Locale;
 import java.util.Optional;
 import java.util.Set;
 import org.slf4j.Logger;
@@ -157,7 +158,7 @@ public class RefitService {
                 }
             } else if (at > 0 && at < input.length()) {
                 shiftNote = "The drift watch found a shift in sales from " + shift.get().from() + ": "
-                        + LevelShifts.untilTried(unit);
+                        + levelShifts.untilTried(granularity, Locale.ENGLISH);
             }
         }
         ForecastResult result;

@@ -78,7 +78,7 @@ class SummaryMail {
 
         /** "Q4 2026" (so written in English and German alike). */
         public String quarter(java.time.LocalDate d) {
-            return d == null ? "" : "Q" + ((d.getMonthValue() - 1) / 3 + 1) + " " + d.getYear();
+            return d == null ? "" : "Q" + d.get(java.time.temporal.IsoFields.QUARTER_OF_YEAR) + " " + d.getYear();
         }
 
         /** A line's period in words: the month's name, the quarter, or nothing for a week. */

@@ -121,6 +121,7 @@ class LocationLifecycleIntegrationTests {
         assertThat(outcome.message()).isEqualTo("closed on 2026-11-29: no new forecasts");
         String page = mvc.perform(get("/locations/{code}", code).with(owner).locale(java.util.Locale.UK)).andReturn()
                 .getResponse().getContentAsString();
+        // day month year for a British reader (common practice)
         assertThat(page).contains("closed on 29 Nov 2026").contains("no new forecasts are");
 
         assertThat(change("Lake Kiosk West", "ACTIVE", null)).isEqualTo("saved");

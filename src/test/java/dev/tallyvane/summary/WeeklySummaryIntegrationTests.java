@@ -251,7 +251,8 @@ class WeeklySummaryIntegrationTests {
         assertThat(html).contains("cid:chart").contains("Forecasts are estimates").contains("https://tallyvane.example.test");
         assertThat(text).contains("Forecasts are estimates");
         // the same week's e-mail in German (tallyvane.summary.locale=de-DE): its words from the German bundle,
-        // amounts and dates in German forms
+        // amounts and dates in German forms (the amount as the JDK's German currency format writes it; the
+        // subject's abbreviated month "Nov." is the JDK's German locale data: common practice)
         SummaryMail.Rendered de = mail.render(summaryBuilder.build(WEEK, SummaryService.zone(summaryProperties)),
                 "Olive", "https://tallyvane.example.test/email/unsubscribe?u=1", "cid:chart", Locale.GERMANY);
         assertThat(de.subject()).isEqualTo("Tallyvane-Wochenübersicht: 23 Nov. 2026 – 29 Nov. 2026");

@@ -128,7 +128,7 @@ class DashboardBrowserTests {
         assertThat(browser.text()).contains("was chosen:").contains("rolling origin");
         // keyboard: focus the chart and move the read-out to the last forecast week
         chart.sendKeys(Keys.END);
-        // the read-out writes the day as the browser's reader does (en-GB)
+        // the read-out writes the day as the browser's reader does (en-GB: day month year, common practice)
         assertThat(browser.find("#forecast-chart .u-legend").getText()).contains("18 Jan 2027");
         // the earlier-forecasts toggle switches the series on
         browser.find("#show-earlier").click();

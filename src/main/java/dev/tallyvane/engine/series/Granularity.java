@@ -85,7 +85,7 @@ public enum Granularity {
             case WEEK -> String.format(Locale.ROOT, "%04d-W%02d",
                     start.get(IsoFields.WEEK_BASED_YEAR), start.get(IsoFields.WEEK_OF_WEEK_BASED_YEAR));
             case MONTH -> String.format(Locale.ROOT, "%04d-%02d", start.getYear(), start.getMonthValue());
-            case QUARTER -> String.format(Locale.ROOT, "%04d-Q%d", start.getYear(), (start.getMonthValue() - 1) / 3 + 1);
+            case QUARTER -> String.format(Locale.ROOT, "%04d-Q%d", start.getYear(), start.get(IsoFields.QUARTER_OF_YEAR));
         };
     }
 

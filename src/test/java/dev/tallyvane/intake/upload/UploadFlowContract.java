@@ -233,7 +233,7 @@ abstract class UploadFlowContract {
         mvc.perform(post("/uploads/{id}/commit", months).with(bookkeeper).with(csrf())).andExpect(status().isFound());
         long days = upload("more-days.csv", ("location,period,amount\n" + code + ",15/10/2026,90\n" + code
                 + ",31/10/2026,95\n").getBytes(StandardCharsets.UTF_8));
-        // days as a British reader writes them
+        // days as a British reader writes them (day month year: common practice)
         assertThat(mvc.perform(get("/uploads/{id}", days).with(bookkeeper).locale(java.util.Locale.UK)).andReturn()
                 .getResponse().getContentAsString()).contains("2 days from 15 Oct 2026 to 31 Oct 2026")
                 .contains("this file brings daily figures for 2026-10, where a monthly total is already kept.")
