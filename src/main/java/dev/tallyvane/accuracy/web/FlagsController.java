@@ -46,7 +46,8 @@ class FlagsController {
         try {
             LocationEvents.Event e = accuracy.recordAsEvent(id, name, user.getName());
             queue.refitNow(flag.locationId());
-            redirect.addFlashAttribute("flagSaved", messages.say("flash.flagEvent", e.name(), eventWords.when(e), eventWords.effect(e)));
+            redirect.addFlashAttribute("flagSaved", messages.say("flash.flagEvent", e.name(), eventWords.when(e),
+                    eventWords.effect(e)));
         } catch (InvalidRequest e) {
             redirect.addFlashAttribute("flagProblems", e.problems());
         }

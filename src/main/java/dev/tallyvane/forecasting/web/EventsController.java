@@ -49,7 +49,8 @@ class EventsController {
         try {
             LocationEvents.Event e = events.add(l.getId(), l.getCode(), form, user.getName());
             queue.refitNow(l.getId());
-            redirect.addFlashAttribute("eventSaved", messages.say("flash.eventAdded", e.name(), eventWords.when(e), eventWords.effect(e)));
+            redirect.addFlashAttribute("eventSaved", messages.say("flash.eventAdded", e.name(), eventWords.when(e),
+                    eventWords.effect(e)));
         } catch (InvalidRequest e) {
             redirect.addFlashAttribute("eventProblems", e.problems());
             redirect.addFlashAttribute("eventInput", form);
