@@ -44,7 +44,9 @@ import org.apache.commons.math3.distribution.TDistribution;
  * little history for a single origin the engine falls back to the naive method and says so. Which
  * candidates a series gets, and how each is built from its dates and calendar, is the
  * {@link CandidateRegistry}'s. Candidates with costly structural choices settle them on the earliest training window
- * ({@link Candidate#forOrigins}); the chosen candidate is then fitted afresh on all the data.
+ * ({@link Candidate#forOrigins}); the chosen candidate is then fitted on all the data, keeping that
+ * structure while the data are at most a quarter longer than the window it rested on and estimating
+ * its coefficients afresh ({@link Candidate#forFinalFit}), else searched afresh.
  *
  * <p><b>Intervals</b>: the model's analytic σ_h where it has one (normal, or the t distribution where the
  * model states degrees of freedom; log-normal for models of the logarithms), scaled by how its own
@@ -139,7 +141,8 @@ public final class ForecastEngine {
             }
             try {
                 RollingOriginBacktest.Outcome outcome = backtest.run(c, data.filled(), data.scorable(), m);
-                scored.add(new Scored(c, outcome, backtest.score(outcome, request.metric())));
+                scored.add(new Scored(c, outcome, backtest.score(outcome, request.metric()),
+                        outcome.forFinalFit(c, n)));
             } catch (RuntimeException e) {
                 unscored.add(new LeaderboardEntry(c.key(), c.name(), c.complexity(), LeaderboardEntry.Status.FAILED,
                         Map.of(), 0, 0, 0, String.valueOf(e.getMessage())));
@@ -166,12 +169,14 @@ public final class ForecastEngine {
                 Combination combination = new Combination(best.stream().map(Scored::candidate).toList(), rule);
                 RollingOriginBacktest.Outcome outcome = backtest.score(combination.combine(best.stream()
                         .map(s -> s.outcome.forecasts()).toList()), data.filled(), data.scorable(), m);
-                scored.add(new Scored(combination, outcome, backtest.score(outcome, metric)));
+                scored.add(new Scored(combination, outcome, backtest.score(outcome, metric),
+                        new Combination(best.stream().map(Scored::forFinalFit).toList(), rule)));
             }
         }
         scored.sort(order);
 
         Candidate chosen;
+        Candidate fitting;
         RollingOriginBacktest.Outcome chosenOutcome = null;
         String reason;
         Scored winner = scored.stream().filter(s -> Double.isFinite(s.score)).findFirst().orElse(null);
@@ -207,12 +212,14 @@ public final class ForecastEngine {
         }
         if (winner == null) {
             chosen = new Naive();
+            fitting = chosen;
             reason = "Too little history to compare methods out of sample; the naive method (last value carried "
                     + "forward) is used until more periods arrive.";
             notes.add(String.format(Locale.ROOT, "fell back to the naive method: %d periods are too few for a "
                     + "rolling-origin test %d periods ahead", n, h));
         } else {
             chosen = winner.candidate;
+            fitting = winner.forFinalFit;
             chosenOutcome = winner.outcome;
             int lead = backtest.allLeadTimes() ? backtest.longestLeadTime(n) : h;
             reason = String.format(Locale.ROOT, "Lowest %s over %d rolling origin%s, %s%d %s ahead.", metric.label(),
@@ -234,7 +241,7 @@ public final class ForecastEngine {
         }
         board.addAll(unscored);
 
-        FittedModel model = chosen.fit(data.filled(), m);
+        FittedModel model = fitting.fit(data.filled(), m);
         PointForecast pf = model.forecast(h);
         IntervalSource source = usable(pf) || chosenOutcome == null ? IntervalSource.ANALYTIC
                 : IntervalSource.ROLLING_ORIGIN_ERRORS;
@@ -244,7 +251,9 @@ public final class ForecastEngine {
                 backtest.originCount(), notes);
     }
 
-    private record Scored(Candidate candidate, RollingOriginBacktest.Outcome outcome, double score) {
+    /** @param forFinalFit what fits all the data if this candidate is chosen ({@link Candidate#forFinalFit}) */
+    private record Scored(Candidate candidate, RollingOriginBacktest.Outcome outcome, double score,
+            Candidate forFinalFit) {
     }
 
     private static double rankable(Metric metric, double score) {

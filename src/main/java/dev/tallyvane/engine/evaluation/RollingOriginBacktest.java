@@ -86,9 +86,15 @@ public final class RollingOriginBacktest {
 
     /**
      * The errors of one candidate over every origin, pooled and by horizon step, and its forecasts
-     * (origin × step) for combining.
+     * (origin × step) for combining; {@code settled} is the candidate as it ran at the origins
+     * ({@link Candidate#forOrigins}; null for forecasts scored as they came, e.g. a combination's).
      */
-    public record Outcome(ErrorSample errors, ErrorSample[] errorsByStep, double[][] forecasts) {
+    public record Outcome(ErrorSample errors, ErrorSample[] errorsByStep, double[][] forecasts, Candidate settled) {
+
+        /** The candidate that fits all n periods after this backtest ({@link Candidate#forFinalFit}). */
+        public Candidate forFinalFit(Candidate candidate, int n) {
+            return settled == null ? candidate : settled.forFinalFit(n).orElse(candidate);
+        }
 
         /**
          * The metric over every lead time with equal weight: the mean over steps 1..h of the metric of
@@ -138,7 +144,8 @@ public final class RollingOriginBacktest {
             PointForecast f = atOrigins.fit(training, seasonalPeriod).forecast(horizon);
             forecasts[i] = f.mean();
         }
-        return score(forecasts, y, scorable, seasonalPeriod);
+        Outcome scored = score(forecasts, y, scorable, seasonalPeriod);
+        return new Outcome(scored.errors(), scored.errorsByStep(), forecasts, atOrigins);
     }
 
     /**
@@ -184,6 +191,6 @@ public final class RollingOriginBacktest {
                 }
             }
         }
-        return new Outcome(errors, byStep, forecasts);
+        return new Outcome(errors, byStep, forecasts, null);
     }
 }

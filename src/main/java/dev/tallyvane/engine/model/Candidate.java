@@ -42,6 +42,20 @@ public interface Candidate {
         return this;
     }
 
+    /**
+     * What fits all {@code n} periods once a backtest has run, called on the candidate {@link #forOrigins}
+     * returned: empty to fit the candidate afresh (the default), or a candidate that keeps the structure
+     * settled on the earliest window (an exponential-smoothing form, an ARIMA order) and estimates only
+     * its coefficients on all the data. A candidate offers that only while n is at most
+     * {@link #REUSE_GROWTH} times the window it settled on, the rule its backtest origins follow: the
+     * full data then hold at most a quarter more periods than the choice rested on, and a search that
+     * costs a daily re-fit most of its time (an order search, seven smoothing forms) is not run a second
+     * time to confirm it. Its name is the automatic candidate's.
+     */
+    default java.util.Optional<Candidate> forFinalFit(int n) {
+        return java.util.Optional.empty();
+    }
+
     /** Fits the candidate to {@code y} with seasonal period {@code seasonalPeriod} (1 = none). */
     FittedModel fit(double[] y, int seasonalPeriod);
 }

@@ -85,6 +85,19 @@ public final class ExponentialSmoothing implements Candidate {
         return e == null ? this : new ExponentialSmoothing(fixedForm, e, earliestTraining.length);
     }
 
+    /**
+     * The form settled on the earliest window, its smoothing parameters and initial states estimated
+     * afresh on all the data (see {@link Candidate#forFinalFit}).
+     */
+    @Override
+    public java.util.Optional<Candidate> forFinalFit(int n) {
+        if (settled == null || n > REUSE_GROWTH * estimatedOn) {
+            return java.util.Optional.empty();
+        }
+        // estimatedOn = 0: fit() estimates the settled form on the data instead of only running its recursion
+        return java.util.Optional.of(new ExponentialSmoothing(fixedForm, settled, 0));
+    }
+
     @Override
     public String key() {
         return fixedForm == null ? KEY : KEY + "-" + fixedForm.label();

@@ -48,7 +48,9 @@ import java.util.Map;
  * <p><b>In a backtest</b> ({@link #forOrigins}) the transform, differencing and order are chosen
  * once, on the earliest training window. At each origin the coefficients of that window are reused
  * (only the Kalman filter runs on the longer data) while the window is at most 25% longer, and are
- * re-estimated from them (a warm start) beyond that; the final fit searches again on all the data.
+ * re-estimated from them (a warm start) beyond that. The final fit on all the data keeps the settled
+ * structure and estimates its coefficients by exact likelihood from the settled ones while the data are
+ * at most 25% longer ({@link #forFinalFit}), and searches again otherwise.
  * The accuracy harness measures what this costs (docs/benchmarks.md).
  */
 public final class SeasonalArima implements Candidate {
@@ -105,21 +107,24 @@ public final class SeasonalArima implements Candidate {
     private final Order fixed;
     private final double[] start;
     private final int estimatedOn;
+    /** The order was chosen by the automatic search (on a backtest's earliest window): the automatic name. */
+    private final boolean searched;
 
     /** The automatic candidate: transform, differencing and order chosen on each fit. */
     public SeasonalArima() {
-        this(null, null, 0);
+        this(null, null, 0, false);
     }
 
-    private SeasonalArima(Order fixed, double[] start, int estimatedOn) {
+    private SeasonalArima(Order fixed, double[] start, int estimatedOn, boolean searched) {
         this.fixed = fixed;
         this.start = start;
         this.estimatedOn = estimatedOn;
+        this.searched = searched;
     }
 
     /** A candidate that always fits the given order (its coefficients are still estimated). */
     public static SeasonalArima withOrder(Order order) {
-        return new SeasonalArima(order, null, 0);
+        return new SeasonalArima(order, null, 0, false);
     }
 
     @Override
@@ -129,7 +134,7 @@ public final class SeasonalArima implements Candidate {
 
     @Override
     public String name() {
-        return fixed == null ? "Seasonal ARIMA (order by AICc)" : fixed.label();
+        return fixed == null || searched ? "Seasonal ARIMA (order by AICc)" : fixed.label();
     }
 
     @Override
@@ -148,7 +153,20 @@ public final class SeasonalArima implements Candidate {
             return this;
         }
         Estimate e = search(earliestTraining, seasonalPeriod, false);
-        return new SeasonalArima(e.order, e.u, earliestTraining.length);
+        return new SeasonalArima(e.order, e.u, earliestTraining.length, true);
+    }
+
+    /**
+     * The transform, differencing and order settled on the earliest window, the coefficients estimated
+     * by exact likelihood on all the data from the settled ones (see {@link Candidate#forFinalFit}).
+     */
+    @Override
+    public java.util.Optional<Candidate> forFinalFit(int n) {
+        if (!searched || n > REUSE_GROWTH * estimatedOn) {
+            return java.util.Optional.empty();
+        }
+        // estimatedOn = 0: fit() re-estimates from the settled coefficients instead of reusing them
+        return java.util.Optional.of(new SeasonalArima(fixed, start, 0, true));
     }
 
     @Override

@@ -139,4 +139,25 @@ class ExponentialSmoothingTests {
         assertThat(far.description()).isEqualTo(onEarliest.description());
         assertThat(far.parameters().get("l0")).isNotEqualTo(onEarliest.parameters().get("l0"));
     }
+
+    @Test
+    void theFinalFitKeepsTheSettledFormAndReestimatesItsParametersWhileTheDataAreAtMostAQuarterLonger() {
+        Random r = new Random(5);
+        double[] y = new double[120];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = 200 + 2 * t + 30 * Math.sin(2 * Math.PI * t / 12) + 6 * r.nextGaussian();
+        }
+        double[] earliest = Arrays.copyOf(y, 100);
+        Candidate settled = new ExponentialSmoothing().forOrigins(earliest, 12);
+        FittedModel onEarliest = settled.fit(earliest, 12);
+        Candidate forFinal = settled.forFinalFit(120).orElseThrow();
+        FittedModel all = forFinal.fit(y, 12);
+        assertThat(all.description()).isEqualTo(onEarliest.description());
+        assertThat(all.parameters().get("l0")).isNotEqualTo(onEarliest.parameters().get("l0"));
+        assertThat(all.fitted()).hasSize(120);
+        assertThat(forFinal.key()).isEqualTo(ExponentialSmoothing.KEY);
+        assertThat(forFinal.name()).isEqualTo(new ExponentialSmoothing().name());
+        assertThat(settled.forFinalFit(126)).isEmpty();
+        assertThat(new ExponentialSmoothing().forFinalFit(120)).isEmpty();
+    }
 }

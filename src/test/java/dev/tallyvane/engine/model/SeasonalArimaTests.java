@@ -199,7 +199,10 @@ class SeasonalArimaTests {
         double[] earliest = java.util.Arrays.copyOf(y, 100);
         Candidate settled = new SeasonalArima().forOrigins(earliest, 12);
         FittedModel onEarliest = settled.fit(earliest, 12);
-        assertThat(settled.name()).isEqualTo(onEarliest.description()).doesNotContain("by AICc");
+        // the settled candidate keeps the automatic candidate's name (a combination names its members by it);
+        // the fitted model says which order it is
+        assertThat(settled.name()).isEqualTo(new SeasonalArima().name());
+        assertThat(onEarliest.description()).startsWith("ARIMA(");
         // 120 ≤ 1.25 × 100: the coefficients are reused, only the filter runs on
         FittedModel near = settled.fit(java.util.Arrays.copyOf(y, 120), 12);
         assertThat(coefficients(onEarliest)).isNotEmpty();
@@ -209,6 +212,23 @@ class SeasonalArimaTests {
         FittedModel far = settled.fit(y, 12);
         assertThat(far.description()).isEqualTo(onEarliest.description());
         assertThat(coefficients(far)).isNotEqualTo(coefficients(onEarliest));
+    }
+
+    @Test
+    void theFinalFitKeepsTheSettledOrderAndReestimatesItsCoefficientsWhileTheDataAreAtMostAQuarterLonger() {
+        double[] y = passengers();
+        Candidate settled = new SeasonalArima().forOrigins(java.util.Arrays.copyOf(y, 120), 12);
+        FittedModel onEarliest = settled.fit(java.util.Arrays.copyOf(y, 120), 12);
+        // 144 ≤ 1.25 × 120: the order stays, the coefficients are estimated on all 144 months
+        Candidate forFinal = settled.forFinalFit(144).orElseThrow();
+        FittedModel all = forFinal.fit(y, 12);
+        assertThat(all.description()).isEqualTo(onEarliest.description());
+        assertThat(coefficients(all)).isNotEqualTo(coefficients(onEarliest));
+        assertThat(forFinal.name()).isEqualTo(new SeasonalArima().name());
+        // 151 > 150: searched afresh, as the automatic candidate itself is
+        assertThat(settled.forFinalFit(151)).isEmpty();
+        // a candidate not settled on a window has nothing to keep
+        assertThat(new SeasonalArima().forFinalFit(144)).isEmpty();
     }
 
     private static java.util.Map<String, Double> coefficients(FittedModel f) {
