@@ -86,6 +86,17 @@ public final class ForecastEngine {
     }
 
     public static ForecastResult forecast(Series series, ForecastRequest request) {
+        return forecast(series, request, null);
+    }
+
+    /**
+     * The forecast, with structures settled by earlier re-fits of the series looked up in {@code settled}
+     * (and kept there) instead of searched again; the result is the one {@link #forecast(Series,
+     * ForecastRequest)} gives.
+     *
+     * @param settled the memo, or null for none
+     */
+    public static ForecastResult forecast(Series series, ForecastRequest request, SettledStructures settled) {
         PreparedSeries data = PreparedSeries.of(series);
         List<String> notes = new ArrayList<>(data.notes());
         int n = data.length();
@@ -140,7 +151,10 @@ public final class ForecastEngine {
                 continue;
             }
             try {
-                RollingOriginBacktest.Outcome outcome = backtest.run(c, data.filled(), data.scorable(), m);
+                RollingOriginBacktest.Outcome outcome = settled == null
+                        ? backtest.run(c, data.filled(), data.scorable(), m)
+                        : backtest.runSettled(settled(settled, c, data, backtest, m, series), data.filled(),
+                                data.scorable(), m);
                 scored.add(new Scored(c, outcome, backtest.score(outcome, request.metric()),
                         outcome.forFinalFit(c, n)));
             } catch (RuntimeException e) {
@@ -249,6 +263,13 @@ public final class ForecastEngine {
         return new ForecastResult(chosen.key(), chosen.name(), model.description(), model.parameters(), source,
                 reason, series.granularity(), h, metric, points, data.history(model.fitted()), board,
                 backtest.originCount(), notes);
+    }
+
+    private static Candidate settled(SettledStructures memo, Candidate c, PreparedSeries data,
+            RollingOriginBacktest backtest, int m, Series series) {
+        double[] window = java.util.Arrays.copyOf(data.filled(), backtest.settlingWindow());
+        return memo.settled(c, m, series.periodAt(data.offset()), series.calendar(), window,
+                () -> c.forOrigins(window, m));
     }
 
     /** @param forFinalFit what fits all the data if this candidate is chosen ({@link Candidate#forFinalFit}) */

@@ -3,6 +3,7 @@ package dev.tallyvane.forecasting;
 import dev.tallyvane.engine.ForecastEngine;
 import dev.tallyvane.engine.ForecastRequest;
 import dev.tallyvane.engine.ForecastResult;
+import dev.tallyvane.engine.SettledStructures;
 import dev.tallyvane.engine.ShiftTrial;
 import dev.tallyvane.engine.evaluation.ErrorSample;
 import dev.tallyvane.engine.evaluation.LeaderboardEntry;
@@ -55,10 +56,13 @@ public class RefitService {
     private final ApplicationEventPublisher events;
     private final JsonMapper json;
     private final Clock clock;
+    private final SettledStructures settled;
 
     RefitService(LocationService locations, SettingsService settings, SeriesAssembler assembler, IssuedForecastStore issued,
             SeriesStateStore state, ApplicationEventPublisher events, JsonMapper json, Clock clock,
-            LocationEvents locationEvents, RealChanges realChanges, LevelShifts levelShifts) {
+            LocationEvents locationEvents, RealChanges realChanges, LevelShifts levelShifts,
+            SettledStructures settled) {
+        this.settled = settled;
         this.realChanges = realChanges;
         this.levelShifts = levelShifts;
         this.locationEvents = locationEvents;
@@ -164,7 +168,7 @@ public class RefitService {
         ForecastResult result;
         ForecastResult benchmark;
         try {
-            result = ForecastEngine.forecast(input, request);
+            result = ForecastEngine.forecast(input, request, settled);
             int m = s.seasonalPeriod() != null ? s.seasonalPeriod() : granularity.seasonalPeriod();
             benchmark = ForecastEngine.forecast(input, ForecastRequest.of(horizon).withSeasonalPeriod(m)
                     .withCandidates(Set.of(m >= 2 ? SeasonalNaive.KEY : Naive.KEY)));

@@ -4,6 +4,7 @@ import dev.tallyvane.engine.ForecastEngine;
 import dev.tallyvane.engine.ForecastRequest;
 import dev.tallyvane.engine.ForecastResult;
 import dev.tallyvane.engine.ReferenceData;
+import dev.tallyvane.engine.SettledStructures;
 import dev.tallyvane.engine.evaluation.ErrorSample;
 import dev.tallyvane.engine.evaluation.Metric;
 import dev.tallyvane.engine.series.Granularity;
@@ -66,6 +67,22 @@ public class EngineBench {
     @Benchmark
     public ForecastResult daily3YearsHorizon28() {
         return ForecastEngine.forecast(DAILY, ForecastRequest.of(28));
+    }
+
+    /** Yesterday's re-fit (1,095 days) left its settled structures in the memo; today one more day arrived. */
+    static final SettledStructures YESTERDAY = new SettledStructures(100);
+    static final Series DAILY_NEXT_DAY = nextDay();
+
+    static Series nextDay() {
+        ForecastEngine.forecast(DAILY, ForecastRequest.of(28), YESTERDAY);
+        double[] y = Arrays.copyOf(DAILY.values(), DAILY.length() + 1);
+        y[y.length - 1] = y[y.length - 8];
+        return new Series(Granularity.DAY, DAILY.start(), y);
+    }
+
+    @Benchmark
+    public ForecastResult daily3YearsHorizon28NextDayWithYesterdaysStructures() {
+        return ForecastEngine.forecast(DAILY_NEXT_DAY, ForecastRequest.of(28), YESTERDAY);
     }
 
     @Test

@@ -128,17 +128,59 @@ public final class RollingOriginBacktest {
         }
     }
 
+    /** Series whose earliest window is shorter than this settle on that window itself ({@link #settlingWindow}). */
+    public static final int GRID_FROM = 150;
+    /** Growth factor of the grid of settling windows ({@link #settlingWindow}). */
+    public static final double GRID_GROWTH = 1.05;
+
     /**
-     * Runs the candidate over every origin.
+     * The window candidates settle their structure on ({@link Candidate#forOrigins}): the earliest
+     * training window itself when it is shorter than {@value #GRID_FROM} periods, else the largest length
+     * of a grid no longer than it, where the grid starts at {@value #GRID_FROM} and each length is
+     * ⌊{@value #GRID_GROWTH} × the previous⌋. Figures arrive daily and the earliest window moves on with
+     * them; on the grid a long series settles on the same window for many re-fits in a row (about fifty
+     * for three years of days), so what was settled once can be kept between re-fits
+     * ({@code SettledStructures}), while the window still holds at least 1/{@value #GRID_GROWTH} of the
+     * earliest one and so lies within {@link Candidate#REUSE_GROWTH} of every origin. It never holds a
+     * period after the earliest origin.
+     */
+    public int settlingWindow() {
+        return settlingWindow(earliestTraining());
+    }
+
+    static int settlingWindow(int earliestTraining) {
+        if (earliestTraining < GRID_FROM) {
+            return earliestTraining;
+        }
+        int w = GRID_FROM;
+        while (true) {
+            int next = (int) Math.floor(w * GRID_GROWTH);
+            if (next > earliestTraining) {
+                return w;
+            }
+            w = next;
+        }
+    }
+
+    /**
+     * Runs the candidate over every origin, settled on {@link #settlingWindow()}.
      *
      * @param y        filled values (no NaN)
      * @param scorable false where the original value was missing or the day was closed
      * @throws RuntimeException whatever the candidate throws on a training window
      */
     public Outcome run(Candidate candidate, double[] y, boolean[] scorable, int seasonalPeriod) {
+        return runSettled(origins.length == 0 ? candidate
+                : candidate.forOrigins(java.util.Arrays.copyOf(y, settlingWindow()), seasonalPeriod), y, scorable,
+                seasonalPeriod);
+    }
+
+    /**
+     * Runs a candidate already settled on {@link #settlingWindow()} ({@link Candidate#forOrigins}) over every
+     * origin.
+     */
+    public Outcome runSettled(Candidate atOrigins, double[] y, boolean[] scorable, int seasonalPeriod) {
         double[][] forecasts = new double[origins.length][];
-        Candidate atOrigins = origins.length == 0 ? candidate
-                : candidate.forOrigins(java.util.Arrays.copyOf(y, origins[0]), seasonalPeriod);
         for (int i = 0; i < origins.length; i++) {
             double[] training = java.util.Arrays.copyOf(y, origins[i]);
             PointForecast f = atOrigins.fit(training, seasonalPeriod).forecast(horizon);

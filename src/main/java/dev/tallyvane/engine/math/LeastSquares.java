@@ -45,6 +45,100 @@ public final class LeastSquares {
         return fit(design, y, REFINEMENTS);
     }
 
+    /** Largest condition number of the equilibrated normal equations {@link #coefficientsQuickly} accepts. */
+    static final double QUICK_CONDITION = 1e10;
+
+    /**
+     * The least-squares coefficients only, fast, for inner loops that solve the same small problem
+     * thousands of times (the initial states of exponential smoothing, once per trial of its smoothing
+     * parameters): the normal equations XᵀX β = Xᵀy, equilibrated (each column divided by its norm) and
+     * solved by Cholesky, O(np²/2) with no n × p matrix built. Forming XᵀX squares X's condition number
+     * (Golub &amp; Van Loan, <i>Matrix Computations</i>, 4th ed., §5.3.7), so the answer is refused,
+     * null, when the Cholesky pivots put the equilibrated κ(XᵀX) (estimated as the ratio of the
+     * largest to the smallest squared pivot) above {@value #QUICK_CONDITION}: then about six digits or
+     * fewer would survive and the caller uses {@link #fit(double[][], double[], int)}.
+     *
+     * @param columns p columns of n values each (X by columns)
+     * @return p coefficients, or null when the problem is too ill-conditioned (or a column is all zeros)
+     */
+    public static double[] coefficientsQuickly(double[][] columns, double[] y) {
+        int p = columns.length;
+        double[] norm = new double[p];
+        for (int j = 0; j < p; j++) {
+            double ss = 0;
+            for (double v : columns[j]) {
+                ss += v * v;
+            }
+            if (!(ss > 0) || !Double.isFinite(ss)) {
+                return null;
+            }
+            norm[j] = Math.sqrt(ss);
+        }
+        double[][] a = new double[p][p];
+        double[] b = new double[p];
+        for (int i = 0; i < p; i++) {
+            double[] ci = columns[i];
+            for (int j = 0; j <= i; j++) {
+                double[] cj = columns[j];
+                double dot = 0;
+                for (int t = 0; t < ci.length; t++) {
+                    dot += ci[t] * cj[t];
+                }
+                a[i][j] = dot / (norm[i] * norm[j]);
+            }
+            double dot = 0;
+            for (int t = 0; t < ci.length; t++) {
+                dot += ci[t] * y[t];
+            }
+            b[i] = dot / norm[i];
+        }
+        // Cholesky A = L Lᵀ in place (lower triangle)
+        double largest = 0;
+        double smallest = Double.POSITIVE_INFINITY;
+        for (int j = 0; j < p; j++) {
+            double d = a[j][j];
+            for (int k = 0; k < j; k++) {
+                d -= a[j][k] * a[j][k];
+            }
+            if (!(d > 0)) {
+                return null;
+            }
+            largest = Math.max(largest, d);
+            smallest = Math.min(smallest, d);
+            double l = Math.sqrt(d);
+            a[j][j] = l;
+            for (int i = j + 1; i < p; i++) {
+                double v = a[i][j];
+                for (int k = 0; k < j; k++) {
+                    v -= a[i][k] * a[j][k];
+                }
+                a[i][j] = v / l;
+            }
+        }
+        if (largest > QUICK_CONDITION * smallest) {
+            return null;
+        }
+        double[] z = new double[p];
+        for (int i = 0; i < p; i++) {
+            double v = b[i];
+            for (int k = 0; k < i; k++) {
+                v -= a[i][k] * z[k];
+            }
+            z[i] = v / a[i][i];
+        }
+        for (int i = p - 1; i >= 0; i--) {
+            double v = z[i];
+            for (int k = i + 1; k < p; k++) {
+                v -= a[k][i] * z[k];
+            }
+            z[i] = v / a[i][i];
+        }
+        for (int j = 0; j < p; j++) {
+            z[j] /= norm[j];
+        }
+        return z;
+    }
+
     /**
      * As {@link #fit(double[][], double[])}, with a chosen number of refinement passes: 0 gives the
      * plain Householder solution, enough where a few digits suffice and speed matters (the

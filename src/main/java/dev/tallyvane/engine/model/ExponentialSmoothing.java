@@ -82,7 +82,9 @@ public final class ExponentialSmoothing implements Candidate {
             return this;
         }
         Estimate e = best(earliestTraining, seasonalPeriod);
-        return e == null ? this : new ExponentialSmoothing(fixedForm, e, earliestTraining.length);
+        // the pass over the window is not needed later (and would be kept between re-fits)
+        return e == null ? this : new ExponentialSmoothing(fixedForm,
+                new Estimate(e.form, e.parameters, e.initial, null, e.aicc, e.k), earliestTraining.length);
     }
 
     /**
@@ -138,7 +140,7 @@ public final class ExponentialSmoothing implements Candidate {
                             Double.NaN, settled.k), y, seasonalPeriod);
                 }
             }
-            Estimate e = estimate(settled.form, y, seasonalPeriod);
+            Estimate e = estimate(settled.form, y, seasonalPeriod, settled);
             if (e != null) {
                 return toFittedModel(e, y, seasonalPeriod);
             }
@@ -202,6 +204,15 @@ public final class ExponentialSmoothing implements Candidate {
 
     /** Maximum-likelihood estimate of one form; null when no admissible fit was found. */
     static Estimate estimate(EtsForm form, double[] y, int m) {
+        return estimate(form, y, m, null);
+    }
+
+    /**
+     * Maximum-likelihood estimate of one form, from the estimate of the same form on a shorter window of
+     * the same series when there is one (a warm start: the optimiser's first steps are a fifth as long), or
+     * from the usual starting point; null when no admissible fit was found.
+     */
+    static Estimate estimate(EtsForm form, double[] y, int m, Estimate from) {
         int n = y.length;
         double min = Double.POSITIVE_INFINITY;
         double max = Double.NEGATIVE_INFINITY;
@@ -211,11 +222,12 @@ public final class ExponentialSmoothing implements Candidate {
         }
         double scale = Math.max(max - min, Math.max(Math.abs(max), 1e-9) * 1e-3);
         Layout layout = new Layout(form, m, scale, min, max, heuristicStates(form, y, m));
-        double[] x0 = layout.initialGuess();
         double[] lower = layout.lower();
         double[] upper = layout.upper();
-        BoundedMinimum.Result result = BoundedMinimum.minimise(x -> layout.criterion(x, y), x0, lower, upper, 0.05,
-                1e-5, 2000);
+        double[] x0 = from == null || from.form != form ? layout.initialGuess()
+                : layout.point(from.parameters, from.initial, lower, upper);
+        BoundedMinimum.Result result = BoundedMinimum.minimise(x -> layout.criterion(x, y), x0, lower, upper,
+                from == null ? 0.05 : 0.01, 1e-5, 2000);
         double[] bestX = result.point();
         double bestValue = result.value();
         if (!(bestValue < PENALTY)) {
@@ -235,6 +247,7 @@ public final class ExponentialSmoothing implements Candidate {
     }
 
     private static final double PENALTY = 1e15;
+
 
     /**
      * Heuristic start (Hyndman et al. 2008 §2.6.1, simplified): with a season, ℓ₀ = mean of the
@@ -327,6 +340,32 @@ public final class ExponentialSmoothing implements Candidate {
             return x;
         }
 
+        /** The search point of given parameters and initial states, kept inside the bounds. */
+        double[] point(EtsRecursion.Parameters p, EtsRecursion.States initial, double[] lower, double[] upper) {
+            double[] x = new double[size()];
+            int i = 0;
+            x[i++] = p.alpha();
+            if (form.hasTrend()) {
+                x[i++] = p.beta() / p.alpha();
+            }
+            if (form.seasonal()) {
+                x[i++] = p.gamma() / (1 - p.alpha());
+            }
+            if (form.damped()) {
+                x[i++] = p.phi();
+            }
+            if (!linear()) {
+                x[i++] = initial.level() / scale;
+                if (form.hasTrend()) {
+                    x[i] = initial.trend() / scale;
+                }
+            }
+            for (int j = 0; j < x.length; j++) {
+                x[j] = clamp(x[j], lower[j], upper[j]);
+            }
+            return x;
+        }
+
         private static double clamp(double v, double lo, double hi) {
             return Math.min(Math.max(v, lo + 1e-6), hi - 1e-6);
         }
@@ -385,19 +424,29 @@ public final class ExponentialSmoothing implements Candidate {
             int q = form.initialStates(m);
             int n = y.length;
             double[] base = residuals(p, unitStates(-1), y);
-            double[][] design = new double[n][q];
+            double[][] columns = new double[q][];
             for (int j = 0; j < q; j++) {
                 double[] rj = residuals(p, unitStates(j), y);
                 for (int t = 0; t < n; t++) {
-                    // r(x₀) = r(0) + J x₀, with J's column j = r(e_j) − r(0); minimise ‖r(0) + J x₀‖²
-                    design[t][j] = base[t] - rj[t];
+                    // r(x₀) = r(0) + J x₀, with −J's column j = r(0) − r(e_j); minimise ‖r(0) + J x₀‖²
+                    rj[t] = base[t] - rj[t];
                 }
+                columns[j] = rj;
             }
-            double[] z;
-            try {
-                z = LeastSquares.fit(design, base, 0).coefficients();
-            } catch (IllegalArgumentException degenerate) {
-                return heuristic;
+            // the normal equations where they are well enough conditioned, else Householder QR
+            double[] z = LeastSquares.coefficientsQuickly(columns, base);
+            if (z == null) {
+                double[][] design = new double[n][q];
+                for (int t = 0; t < n; t++) {
+                    for (int j = 0; j < q; j++) {
+                        design[t][j] = columns[j][t];
+                    }
+                }
+                try {
+                    z = LeastSquares.fit(design, base, 0).coefficients();
+                } catch (IllegalArgumentException degenerate) {
+                    return heuristic;
+                }
             }
             for (int j = 0; j < q; j++) {
                 z[j] *= scale; // the columns were built with states of size `scale`

@@ -31,4 +31,26 @@ class RollingOriginBacktestTests {
         RollingOriginBacktest.Outcome pooled = full.score(new double[][] {{8, 8, 8}, {8, 8, 8}, {8, 8, 8}}, y, ok, 1);
         assertThat(full.score(pooled, Metric.MSE)).isEqualTo(pooled.errors().compute(Metric.MSE));
     }
+
+    @Test
+    void longSeriesSettleOnAGridWindowNoLaterThanTheEarliestOriginAndNearIt() {
+        for (int earliest = 4; earliest < 5_000; earliest++) {
+            int w = RollingOriginBacktest.settlingWindow(earliest);
+            if (earliest < RollingOriginBacktest.GRID_FROM) {
+                assertThat(w).isEqualTo(earliest);
+            } else {
+                assertThat(w).isLessThanOrEqualTo(earliest)
+                        .isGreaterThanOrEqualTo((int) Math.ceil(earliest / RollingOriginBacktest.GRID_GROWTH) - 1);
+                assertThat(earliest * 1.0 / w)
+                        .isLessThanOrEqualTo(dev.tallyvane.engine.model.Candidate.REUSE_GROWTH);
+                // the same window for the next day as long as it is not past the next grid length
+                assertThat(RollingOriginBacktest.settlingWindow(earliest + 1))
+                        .isIn(w, earliest + 1);
+            }
+        }
+        // about three years of days: the same window for fifty days in a row (grid lengths 1002, 1052)
+        assertThat(RollingOriginBacktest.settlingWindow(1002)).isEqualTo(1002);
+        assertThat(RollingOriginBacktest.settlingWindow(1051)).isEqualTo(1002);
+        assertThat(RollingOriginBacktest.settlingWindow(1052)).isEqualTo(1052);
+    }
 }

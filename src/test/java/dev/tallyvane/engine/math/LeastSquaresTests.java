@@ -84,6 +84,49 @@ class LeastSquaresTests {
                 .hasMessageContaining("column 1 is all zeros");
     }
 
+    /**
+     * The quick normal-equations path never gives a wrong answer: on every NIST StRD problem it either
+     * refuses (null) or reproduces the certified coefficients to at least 6 digits; it answers on the easy
+     * ones (Norris, a straight line) and refuses Filip (condition number about 1e15).
+     */
+    @ParameterizedTest(name = "NIST StRD {0}, quickly: refused or ≥ 6 digits")
+    @CsvSource({
+        "nist-strd-norris.txt, 1, true",
+        "nist-strd-pontius.txt, 2, false",
+        "nist-strd-longley.txt, 0, false",
+        "nist-strd-wampler1.txt, 5, false",
+        "nist-strd-wampler2.txt, 5, false",
+        "nist-strd-wampler3.txt, 5, false",
+        "nist-strd-wampler4.txt, 5, false",
+        "nist-strd-wampler5.txt, 5, false",
+        "nist-strd-filip.txt, 10, false",
+    })
+    void quickCoefficientsAreRightOrRefused(String file, int degree, boolean mustAnswer) {
+        ReferenceData ref = ReferenceData.load(file);
+        double[][] x = design(ref, degree);
+        double[][] columns = new double[x[0].length][x.length];
+        for (int i = 0; i < x.length; i++) {
+            for (int j = 0; j < x[0].length; j++) {
+                columns[j][i] = x[i][j];
+            }
+        }
+        double[] y = ref.column("y");
+        double[] b = LeastSquares.coefficientsQuickly(columns, y);
+        if (file.contains("filip")) {
+            assertThat(b).as("Filip is refused").isNull();
+            return;
+        }
+        if (mustAnswer) {
+            assertThat(b).as(file).isNotNull();
+        }
+        if (b != null) {
+            for (int j = 0; j < b.length; j++) {
+                // NIST StRD certified values, file header "certified.Bj"
+                assertDigits(file, "B" + j, b[j], ref.number("certified.B" + j), 6, maxAbs(y));
+            }
+        }
+    }
+
     static double[][] design(ReferenceData ref, int degree) {
         if (degree == 0) {
             int n = ref.column("y").length;
