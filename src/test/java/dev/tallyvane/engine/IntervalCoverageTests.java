@@ -130,4 +130,19 @@ class IntervalCoverageTests {
             return y;
         }, Set.of("ets"));
     }
+
+    /**
+     * Methods without formula intervals take them from their rolling-origin errors: white noise forecast
+     * by a moving average, whose errors' spread does not grow with the lead time.
+     */
+    @Test
+    void whiteNoiseWithAMovingAverageFromItsRollingOriginErrors() {
+        assertCalibrated(coverage(707, r -> {
+            double[] y = new double[LENGTH + HORIZON];
+            for (int t = 0; t < y.length; t++) {
+                y[t] = 500 + 40 * r.nextGaussian();
+            }
+            return y;
+        }, Set.of("ma6")));
+    }
 }

@@ -129,7 +129,7 @@ public final class RollingOriginBacktest {
     }
 
     /** Series whose earliest window is shorter than this settle on that window itself ({@link #settlingWindow}). */
-    public static final int GRID_FROM = 150;
+    public static final int GRID_FROM = 100;
     /** Growth factor of the grid of settling windows ({@link #settlingWindow}). */
     public static final double GRID_GROWTH = 1.05;
 

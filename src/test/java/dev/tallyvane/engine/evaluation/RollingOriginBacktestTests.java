@@ -48,9 +48,13 @@ class RollingOriginBacktestTests {
                         .isIn(w, earliest + 1);
             }
         }
-        // about three years of days: the same window for fifty days in a row (grid lengths 1002, 1052)
-        assertThat(RollingOriginBacktest.settlingWindow(1002)).isEqualTo(1002);
-        assertThat(RollingOriginBacktest.settlingWindow(1051)).isEqualTo(1002);
-        assertThat(RollingOriginBacktest.settlingWindow(1052)).isEqualTo(1052);
+        // about three years of days: the same window for fifty days in a row (grid lengths 1004, 1054)
+        assertThat(RollingOriginBacktest.settlingWindow(1004)).isEqualTo(1004);
+        assertThat(RollingOriginBacktest.settlingWindow(1053)).isEqualTo(1004);
+        assertThat(RollingOriginBacktest.settlingWindow(1054)).isEqualTo(1054);
+        // three years of weeks, 8 ahead, six origins: 142 weeks settle on 138, as do the next two
+        assertThat(RollingOriginBacktest.settlingWindow(142)).isEqualTo(138);
+        assertThat(RollingOriginBacktest.settlingWindow(143)).isEqualTo(138);
+        assertThat(RollingOriginBacktest.settlingWindow(144)).isEqualTo(144);
     }
 }
