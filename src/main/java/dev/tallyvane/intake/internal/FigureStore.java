@@ -70,18 +70,27 @@ public class FigureStore {
     public record NewRevision(FigureKey key, BigDecimal amount) {
     }
 
-    /** Marks the given revisions as superseded at {@code at}. */
+    /**
+     * Marks the given revisions as superseded at {@code at}: one statement per {@value #SUPERSEDE_CHUNK} ids,
+     * given as an array ({@code id = any (?)}, PostgreSQL and H2 alike). A batch of one update per id went
+     * to the database row by row and held a 100,000-figure correction to about 12,000 figures a second
+     * (docs/benchmarks.md).
+     */
     public void supersede(List<Long> revisionIds, Instant at) {
         Timestamp ts = Timestamp.from(at);
-        for (int i = 0; i < revisionIds.size(); i += BATCH) {
-            List<Long> chunk = revisionIds.subList(i, Math.min(revisionIds.size(), i + BATCH));
-            jdbc.batchUpdate("update figure_revision set superseded_at = ? where id = ?", chunk, chunk.size(),
-                    (ps, id) -> {
-                        ps.setTimestamp(1, ts);
-                        ps.setLong(2, id);
-                    });
+        for (int i = 0; i < revisionIds.size(); i += SUPERSEDE_CHUNK) {
+            Long[] chunk = revisionIds.subList(i, Math.min(revisionIds.size(), i + SUPERSEDE_CHUNK))
+                    .toArray(Long[]::new);
+            jdbc.update(connection -> {
+                var ps = connection.prepareStatement("update figure_revision set superseded_at = ? where id = any (?)");
+                ps.setTimestamp(1, ts);
+                ps.setArray(2, connection.createArrayOf("BIGINT", chunk));
+                return ps;
+            });
         }
     }
+
+    private static final int SUPERSEDE_CHUNK = 10_000;
 
     /**
      * Inserts new current values: with PostgreSQL's COPY when the connection is PostgreSQL's and the
