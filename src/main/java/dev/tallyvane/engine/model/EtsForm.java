@@ -5,7 +5,8 @@ package dev.tallyvane.engine.model;
  * components as in Hyndman, Koehler, Ord &amp; Snyder, <i>Forecasting with Exponential Smoothing:
  * The State Space Approach</i> (Springer 2008), and FPP3 §8.5: ETS(A,N,N) is simple exponential
  * smoothing, ETS(A,A,N) Holt's linear trend, ETS(A,Ad,N) the damped trend, ETS(A,A,A) and
- * ETS(A,Ad,A) additive Holt-Winters, ETS(M,A,M) and ETS(M,Ad,M) multiplicative Holt-Winters.
+ * ETS(A,Ad,A) additive Holt-Winters, ETS(M,A,M) and ETS(M,Ad,M) multiplicative Holt-Winters,
+ * ETS(A,N,A) and ETS(M,N,M) a level with a season and no trend.
  */
 public record EtsForm(Error error, Trend trend, Season season) {
 
@@ -22,6 +23,8 @@ public record EtsForm(Error error, Trend trend, Season season) {
     public static final EtsForm HW_ADDITIVE_DAMPED = new EtsForm(Error.A, Trend.AD, Season.A);
     public static final EtsForm HW_MULTIPLICATIVE = new EtsForm(Error.M, Trend.A, Season.M);
     public static final EtsForm HW_MULTIPLICATIVE_DAMPED = new EtsForm(Error.M, Trend.AD, Season.M);
+    public static final EtsForm SEASONAL_ADDITIVE = new EtsForm(Error.A, Trend.N, Season.A);
+    public static final EtsForm SEASONAL_MULTIPLICATIVE = new EtsForm(Error.M, Trend.N, Season.M);
 
     public boolean hasTrend() {
         return trend != Trend.N;
@@ -58,6 +61,10 @@ public record EtsForm(Error error, Trend trend, Season season) {
                 case A -> "Holt linear trend";
                 case AD -> "Holt damped trend";
             };
+        }
+        if (!hasTrend()) {
+            return "Exponential smoothing with " + (season == Season.A ? "an additive" : "a multiplicative")
+                    + " season, no trend";
         }
         return "Holt-Winters " + (season == Season.A ? "additive" : "multiplicative")
                 + (damped() ? " (damped)" : "");

@@ -12,9 +12,11 @@ import dev.tallyvane.engine.math.LeastSquares;
  * Exponential smoothing in the state-space (ETS) form, the form chosen by AICc.
  *
  * <p>Forms tried: SES ETS(A,N,N); Holt ETS(A,A,N); damped ETS(A,Ad,N); and when the series is
- * seasonal (2 ≤ m ≤ 24 and at least two full cycles) additive Holt-Winters ETS(A,A,A), ETS(A,Ad,A)
- * and, for strictly positive data, multiplicative Holt-Winters ETS(M,A,M), ETS(M,Ad,M). A form
- * can also be fixed in the constructor.
+ * seasonal (2 ≤ m ≤ 24 and at least two full cycles) a season without trend ETS(A,N,A), additive
+ * Holt-Winters ETS(A,A,A), ETS(A,Ad,A) and, for strictly positive data, ETS(M,N,M) and multiplicative
+ * Holt-Winters ETS(M,A,M), ETS(M,Ad,M) (the seasonal forms of Hyndman et al. 2008 Table 2.1 that have
+ * a stable likelihood; the trendless ones are often the right model for a seasonal series with a
+ * steady level). A form can also be fixed in the constructor.
  *
  * <p><b>Estimation</b>: maximum likelihood with the smoothing parameters and the initial states
  * estimated together (Hyndman et al. 2008, §5.2; FPP3 §8.6). The concentrated criterion is
@@ -167,9 +169,11 @@ public final class ExponentialSmoothing implements Candidate {
             forms.add(EtsForm.HOLT);
             forms.add(EtsForm.DAMPED);
             if (seasonalAllowed(seasonalPeriod, n)) {
+                forms.add(EtsForm.SEASONAL_ADDITIVE);
                 forms.add(EtsForm.HW_ADDITIVE);
                 forms.add(EtsForm.HW_ADDITIVE_DAMPED);
                 if (allPositive(y)) {
+                    forms.add(EtsForm.SEASONAL_MULTIPLICATIVE);
                     forms.add(EtsForm.HW_MULTIPLICATIVE);
                     forms.add(EtsForm.HW_MULTIPLICATIVE_DAMPED);
                 }
@@ -266,6 +270,9 @@ public final class ExponentialSmoothing implements Candidate {
                         : ((y[j] / mean1) + (y[j + m] / mean2)) / 2;
             }
             normalise(form, seasons);
+            if (!form.hasTrend()) {
+                return new EtsRecursion.States((mean1 + mean2) / 2, 0, seasons);
+            }
             double trend = (mean2 - mean1) / m;
             return new EtsRecursion.States(mean1 - trend * (m + 1) / 2.0, trend, seasons);
         }

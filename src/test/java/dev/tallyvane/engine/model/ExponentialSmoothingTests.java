@@ -110,6 +110,22 @@ class ExponentialSmoothingTests {
     }
 
     @Test
+    void aiccPicksASeasonWithoutTrendForASteadySeasonalLevel() {
+        Random r = new Random(17);
+        double[] y = new double[96];
+        for (int t = 0; t < y.length; t++) {
+            y[t] = 500 + 60 * Math.sin(2 * Math.PI * t / 12) + 8 * r.nextGaussian();
+        }
+        FittedModel fit = new ExponentialSmoothing().fit(y, 12);
+        assertThat(fit.description()).containsAnyOf("ETS(A,N,A)", "ETS(M,N,M)").contains("no trend");
+        double[] f = fit.forecast(24).mean();
+        // a steady level: next year's and the year after's forecasts for the same month agree
+        for (int h = 0; h < 12; h++) {
+            assertThat(f[h + 12]).isCloseTo(f[h], org.assertj.core.api.Assertions.within(1e-6 * Math.abs(f[h])));
+        }
+    }
+
+    @Test
     void analyticVarianceForSesGrowsAsOnePlusAlphaSquaredTimesSteps() {
         // Hyndman et al. (2008) Table 6.1, ETS(A,N,N): σ_h² = σ²[1 + α²(h − 1)]
         double[] sd = ExponentialSmoothing.additiveSd(EtsForm.SES, new EtsRecursion.Parameters(0.5, 0, 0, 1), 2.0, 1, 3);
