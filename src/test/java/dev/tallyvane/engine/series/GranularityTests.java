@@ -43,4 +43,20 @@ class GranularityTests {
                 .hasMessageContaining("2026-Q4");
         assertThatThrownBy(() -> Granularity.ofLabel("2026-Q0")).hasMessageContaining("yyyy-Qn");
     }
+
+    @Test
+    void labelsAreThoseOfTheFormatPatternsForEveryDayOfManyYears() {
+        for (LocalDate d = LocalDate.of(2019, 12, 20); d.isBefore(LocalDate.of(2027, 1, 10)); d = d.plusDays(1)) {
+            assertThat(Granularity.WEEK.label(d)).isEqualTo(String.format(java.util.Locale.ROOT, "%04d-W%02d",
+                    d.get(java.time.temporal.IsoFields.WEEK_BASED_YEAR),
+                    d.get(java.time.temporal.IsoFields.WEEK_OF_WEEK_BASED_YEAR)));
+            assertThat(Granularity.MONTH.label(d)).isEqualTo(String.format(java.util.Locale.ROOT, "%04d-%02d",
+                    d.getYear(), d.getMonthValue()));
+            assertThat(Granularity.QUARTER.label(d)).isEqualTo(String.format(java.util.Locale.ROOT, "%04d-Q%d",
+                    d.getYear(), d.get(java.time.temporal.IsoFields.QUARTER_OF_YEAR)));
+        }
+        assertThat(Granularity.MONTH.label(LocalDate.of(999, 3, 1))).isEqualTo("0999-03");
+        assertThat(Granularity.WEEK.label(LocalDate.of(2026, 12, 28))).isEqualTo("2026-W53");
+        assertThat(Granularity.WEEK.label(LocalDate.of(2027, 1, 4))).isEqualTo("2027-W01");
+    }
 }
