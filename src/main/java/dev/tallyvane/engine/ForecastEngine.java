@@ -140,6 +140,9 @@ public final class ForecastEngine {
 
         List<Scored> scored = new ArrayList<>();
         List<LeaderboardEntry> unscored = new ArrayList<>();
+        SettledStructures.Window window = settled == null || backtest.originCount() == 0 ? null
+                : settled.window(m, series.periodAt(data.offset()), series.calendar(), data.filled(),
+                        backtest.settlingWindow());
         for (Candidate c : candidates) {
             int needed = c.minimumHistory(m);
             if (backtest.originCount() == 0 || needed > backtest.earliestTraining()) {
@@ -151,10 +154,9 @@ public final class ForecastEngine {
                 continue;
             }
             try {
-                RollingOriginBacktest.Outcome outcome = settled == null
+                RollingOriginBacktest.Outcome outcome = window == null
                         ? backtest.run(c, data.filled(), data.scorable(), m)
-                        : backtest.runSettled(settled(settled, c, data, backtest, m, series), data.filled(),
-                                data.scorable(), m);
+                        : backtest.runSettled(window.settled(c), data.filled(), data.scorable(), m);
                 scored.add(new Scored(c, outcome, backtest.score(outcome, request.metric()),
                         outcome.forFinalFit(c, n)));
             } catch (RuntimeException e) {
@@ -263,13 +265,6 @@ public final class ForecastEngine {
         return new ForecastResult(chosen.key(), chosen.name(), model.description(), model.parameters(), source,
                 reason, series.granularity(), h, metric, points, data.history(model.fitted()), board,
                 backtest.originCount(), notes);
-    }
-
-    private static Candidate settled(SettledStructures memo, Candidate c, PreparedSeries data,
-            RollingOriginBacktest backtest, int m, Series series) {
-        double[] window = java.util.Arrays.copyOf(data.filled(), backtest.settlingWindow());
-        return memo.settled(c, m, series.periodAt(data.offset()), series.calendar(), window,
-                () -> c.forOrigins(window, m));
     }
 
     /** @param forFinalFit what fits all the data if this candidate is chosen ({@link Candidate#forFinalFit}) */

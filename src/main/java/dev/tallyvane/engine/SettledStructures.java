@@ -5,7 +5,6 @@ import dev.tallyvane.engine.series.CalendarFacts;
 import java.time.LocalDate;
 import java.util.LinkedHashMap;
 import java.util.Map;
-import java.util.function.Supplier;
 
 /**
  * Structures candidates settled on a backtest's earliest window ({@link Candidate#forOrigins}: an
@@ -49,27 +48,54 @@ public final class SettledStructures {
     }
 
     /**
-     * The candidate as settled on {@code window}: from the memo when the same window was settled before,
-     * else from {@code settle} (kept when it settled anything, i.e. is not the candidate itself).
+     * One series' settling window (its values copied from {@code filled}), fingerprinted once for all the
+     * candidates of a forecast.
      */
-    Candidate settled(Candidate candidate, int seasonalPeriod, LocalDate firstPeriod, CalendarFacts calendar,
-            double[] window, Supplier<Candidate> settle) {
-        Key key = new Key(candidate.key(), seasonalPeriod, firstPeriod, calendar, window.length, fingerprint(window));
-        synchronized (this) {
-            Candidate known = entries.get(key);
-            if (known != null) {
-                hits++;
-                return known;
-            }
-            misses++;
+    Window window(int seasonalPeriod, LocalDate firstPeriod, CalendarFacts calendar, double[] filled, int length) {
+        double[] values = java.util.Arrays.copyOf(filled, length);
+        return new Window(seasonalPeriod, firstPeriod, calendar, values, fingerprint(values));
+    }
+
+    /** A settling window of one series. */
+    final class Window {
+
+        private final int seasonalPeriod;
+        private final LocalDate firstPeriod;
+        private final CalendarFacts calendar;
+        private final double[] values;
+        private final long fingerprint;
+
+        private Window(int seasonalPeriod, LocalDate firstPeriod, CalendarFacts calendar, double[] values,
+                long fingerprint) {
+            this.seasonalPeriod = seasonalPeriod;
+            this.firstPeriod = firstPeriod;
+            this.calendar = calendar;
+            this.values = values;
+            this.fingerprint = fingerprint;
         }
-        Candidate settled = settle.get();
-        if (settled != candidate) {
-            synchronized (this) {
-                entries.put(key, settled);
+
+        /**
+         * The candidate as settled on this window: from the memo when the same window was settled before,
+         * else {@link Candidate#forOrigins} (kept when it settled anything, i.e. is not the candidate itself).
+         */
+        Candidate settled(Candidate candidate) {
+            Key key = new Key(candidate.key(), seasonalPeriod, firstPeriod, calendar, values.length, fingerprint);
+            synchronized (SettledStructures.this) {
+                Candidate known = entries.get(key);
+                if (known != null) {
+                    hits++;
+                    return known;
+                }
+                misses++;
             }
+            Candidate settled = candidate.forOrigins(values, seasonalPeriod);
+            if (settled != candidate) {
+                synchronized (SettledStructures.this) {
+                    entries.put(key, settled);
+                }
+            }
+            return settled;
         }
-        return settled;
     }
 
     /** How often a settled structure was found, and how often it had to be searched for. */
