@@ -89,14 +89,22 @@ class AccuracyScoring {
     }
 
     private int score(Location location, String measure, Granularity granularity) {
+        // the forecast points whose period has begun, then the actuals from the earliest of them on: the periods before
+        // the first forecast was issued are never needed, and reading them was most of scoring's time
+        List<IssuedForecasts.IssuedPoint> points = issued.openPointsThrough(location.getId(), measure, granularity.name(),
+                LocalDate.now(clock.withZone(location.zone())));
+        if (points.isEmpty()) {
+            return 0;
+        }
+        LocalDate earliest = points.stream().map(IssuedForecasts.IssuedPoint::period).min(LocalDate::compareTo)
+                .orElseThrow();
         Map<LocalDate, Double> actuals = new HashMap<>();
-        for (SeriesReader.Point p : reader.completed(location, measure, granularity, null)) {
+        for (SeriesReader.Point p : reader.completedFrom(location, measure, granularity, earliest)) {
             actuals.put(p.period(), p.amount().doubleValue());
         }
         if (actuals.isEmpty()) {
             return 0;
         }
-        LocalDate last = actuals.keySet().stream().max(LocalDate::compareTo).orElseThrow();
         Map<PointKey, Double> current = new HashMap<>();
         Map<PointKey, Long> currentIds = new HashMap<>();
         jdbc.query("select issued_id, step, actual, id from forecast_error where location_id = ? and measure = ? and "
@@ -108,7 +116,7 @@ class AccuracyScoring {
         Instant now = clock.instant();
         List<Object[]> inserts = new ArrayList<>();
         List<Long> superseded = new ArrayList<>();
-        for (IssuedForecasts.IssuedPoint p : issued.openPointsThrough(location.getId(), measure, granularity.name(), last)) {
+        for (IssuedForecasts.IssuedPoint p : points) {
             Double actual = actuals.get(p.period());
             if (actual == null) {
                 continue;

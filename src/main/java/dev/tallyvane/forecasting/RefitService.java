@@ -94,7 +94,8 @@ public class RefitService {
         }
         ForecastSettings s = settings.settings(locationId, measure);
         Granularity granularity = assembler.granularity(location, measure, s);
-        Optional<Series> series = assembler.assemble(location, measure, granularity, cutoff);
+        SeriesAssembler.WithDays read = assembler.assembleWithDays(location, measure, granularity, cutoff);
+        Optional<Series> series = read.series();
         // the owner's mark of a real change: start the models there when enough periods follow it
         String changeNote = null;
         Optional<RealChanges.Mark> mark = realChanges.of(locationId, measure);
@@ -137,8 +138,7 @@ public class RefitService {
         List<OpenDays.Event> known = locationEvents.forEngine(locationId);
         OpenDays.Shape shape = granularity == Granularity.DAY
                 ? (known.isEmpty() ? null : OpenDays.shape(series.get(), known).withoutHolidays())
-                : assembler.assemble(location, measure, Granularity.DAY, cutoff).map(d -> OpenDays.shape(d, known))
-                        .orElse(null);
+                : read.days().map(d -> OpenDays.shape(d, known)).orElse(null);
         OpenDays.Adjusted usual = shape == null ? null : shape.adjust(series.get());
         Series input = usual == null ? series.get() : usual.series();
         // a level shift the drift watch found: start the models after it if that forecasts better out of sample

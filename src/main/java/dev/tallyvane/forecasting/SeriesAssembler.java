@@ -55,7 +55,22 @@ class SeriesAssembler {
 
     /** The series as known at {@code asOf}, or empty when it has no complete period. */
     Optional<Series> assemble(Location location, String measure, Granularity granularity, Instant asOf) {
-        List<SeriesReader.Point> done = reader.completed(location, measure, granularity, asOf);
+        return series(location, granularity, reader.completed(location, measure, granularity, asOf));
+    }
+
+    /** The series at a granularity and the daily series beneath it (the same when by the day), each empty when it has no complete period. */
+    record WithDays(Optional<Series> series, Optional<Series> days) {
+    }
+
+    /** {@link #assemble} at a granularity and by the day, from one read of the figures where they roll up from days. */
+    WithDays assembleWithDays(Location location, String measure, Granularity granularity, Instant asOf) {
+        SeriesReader.WithDays read = reader.completedWithDays(location, measure, granularity, asOf);
+        Optional<Series> series = series(location, granularity, read.periods());
+        return new WithDays(series, granularity == Granularity.DAY ? series
+                : series(location, Granularity.DAY, read.days()));
+    }
+
+    private Optional<Series> series(Location location, Granularity granularity, List<SeriesReader.Point> done) {
         // a first week or month rolled up from days that began mid-period holds only part of it: leave it out
         int first = 0;
         while (first < done.size() && !done.get(first).complete()) {

@@ -67,8 +67,9 @@ class ReferenceHarness {
             frequency.put(r.get("series"), Integer.parseInt(r.get("frequency")));
         }
         List<Row> rows = new ArrayList<>();
-        int[][] in80 = new int[13][2];
-        int[][] in95 = new int[13][2];
+        // [0] monthly series, [1] quarterly: steps 1-4 hold both, so the steps' coverage is also shown apart
+        int[][][] in80 = new int[2][13][2];
+        int[][][] in95 = new int[2][13][2];
         long started = System.nanoTime();
         System.out.println("BENCH reference | series | origin | engine | ets | auto.arima | thetaf | mean3 | engine's choice");
         for (var s : reference.entrySet()) {
@@ -93,10 +94,11 @@ class ReferenceHarness {
                     double actual = y[t + h - 1];
                     ForecastResult.ForecastPoint p = r.forecastAt(h);
                     err += Math.abs(actual - p.forecast());
-                    in80[h][0] += actual >= p.lo80() && actual <= p.hi80() ? 1 : 0;
-                    in95[h][0] += actual >= p.lo95() && actual <= p.hi95() ? 1 : 0;
-                    in80[h][1]++;
-                    in95[h][1]++;
+                    int f = m == 12 ? 0 : 1;
+                    in80[f][h][0] += actual >= p.lo80() && actual <= p.hi80() ? 1 : 0;
+                    in95[f][h][0] += actual >= p.lo95() && actual <= p.hi95() ? 1 : 0;
+                    in80[f][h][1]++;
+                    in95[f][h][1]++;
                 }
                 Map<String, Double> mase = new LinkedHashMap<>();
                 mase.put("engine", err / m / scale);
@@ -112,20 +114,35 @@ class ReferenceHarness {
         report("all", rows);
         report("tuning part", rows.stream().filter(r -> !HELD_OUT.contains(r.series())).toList());
         report("held-out part", rows.stream().filter(r -> HELD_OUT.contains(r.series())).toList());
-        System.out.println("BENCH reference coverage | steps ahead | scored | inside 80% | inside 95%");
+        coverage("all series", in80, in95, 0, 1);
+        coverage("monthly", in80, in95, 0, 0);
+        coverage("quarterly", in80, in95, 1, 1);
+    }
+
+    /** How often the ranges held, by steps ahead, over the series of frequencies {@code from..to} (0 monthly, 1 quarterly). */
+    private static void coverage(String part, int[][][] in80, int[][][] in95, int from, int to) {
+        System.out.println("BENCH reference coverage, " + part + " | steps ahead | scored | inside 80% | inside 95%");
         int all80 = 0;
         int all95 = 0;
         int all = 0;
         for (int h = 1; h <= 12; h++) {
-            if (in80[h][1] > 0) {
-                System.out.printf(Locale.ROOT, "BENCH reference coverage | %d | %d | %.1f%% | %.1f%%%n", h, in80[h][1],
-                        100.0 * in80[h][0] / in80[h][1], 100.0 * in95[h][0] / in95[h][1]);
-                all80 += in80[h][0];
-                all95 += in95[h][0];
-                all += in80[h][1];
+            int hit80 = 0;
+            int hit95 = 0;
+            int n = 0;
+            for (int f = from; f <= to; f++) {
+                hit80 += in80[f][h][0];
+                hit95 += in95[f][h][0];
+                n += in80[f][h][1];
+            }
+            if (n > 0) {
+                System.out.printf(Locale.ROOT, "BENCH reference coverage, %s | %d | %d | %.1f%% | %.1f%%%n", part, h, n,
+                        100.0 * hit80 / n, 100.0 * hit95 / n);
+                all80 += hit80;
+                all95 += hit95;
+                all += n;
             }
         }
-        System.out.printf(Locale.ROOT, "BENCH reference coverage | all | %d | %.1f%% | %.1f%%%n", all,
+        System.out.printf(Locale.ROOT, "BENCH reference coverage, %s | all | %d | %.1f%% | %.1f%%%n", part, all,
                 100.0 * all80 / all, 100.0 * all95 / all);
     }
 
