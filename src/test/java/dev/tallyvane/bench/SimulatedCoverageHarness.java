@@ -1,0 +1,83 @@
+package dev.tallyvane.bench;
+
+import dev.tallyvane.engine.ForecastEngine;
+import dev.tallyvane.engine.ForecastRequest;
+import dev.tallyvane.engine.ForecastResult;
+import dev.tallyvane.engine.series.Granularity;
+import dev.tallyvane.engine.series.Series;
+import java.time.LocalDate;
+import java.util.Locale;
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+
+/**
+ * How often the automatic choice's 80% and 95% ranges hold on simulated chains of our own, by steps ahead: monthly
+ * and quarterly locations, with a steady or a growing level (a season in proportion to the level, noise in proportion
+ * too, the level itself wandering). The reference harness's quarterly series are mostly in its held-out half, so the
+ * question whether ranges fall short on growing quarterly books is asked here, on the tuning side. Not a test: it
+ * prints {@code BENCH simulated coverage} lines.
+ *
+ * <pre>./mvnw -B test -Dtest=SimulatedCoverageHarness -Dsurefire.failIfNoSpecifiedTests=false [-Dbench.series=150]</pre>
+ */
+class SimulatedCoverageHarness {
+
+    private static final int SERIES = Integer.getInteger("bench.series", 150);
+
+    @Test
+    void automaticChoiceOnSimulatedChains() {
+        run("quarterly, growing", Granularity.QUARTER, 4, 40, 0.015, 101);
+        run("quarterly, steady", Granularity.QUARTER, 4, 40, 0.0, 202);
+        run("monthly, growing", Granularity.MONTH, 12, 72, 0.005, 303);
+        run("monthly, steady", Granularity.MONTH, 12, 72, 0.0, 404);
+    }
+
+    private static void run(String name, Granularity g, int m, int length, double growth, long seed) {
+        Random random = new Random(seed);
+        int[][] in80 = new int[m + 1][2];
+        int[][] in95 = new int[m + 1][2];
+        java.util.Map<String, int[]> bySource = new java.util.TreeMap<>();
+        for (int s = 0; s < SERIES; s++) {
+            double[] season = new double[m];
+            double sum = 0;
+            for (int i = 0; i < m; i++) {
+                season[i] = 1 + 0.15 * Math.sin(2 * Math.PI * i / m + random.nextDouble()) + 0.05 * random.nextGaussian();
+                sum += season[i];
+            }
+            double[] y = new double[length + m];
+            double level = 500 + 1500 * random.nextDouble();
+            for (int t = 0; t < y.length; t++) {
+                level *= (1 + growth) * (1 + 0.015 * random.nextGaussian());
+                y[t] = level * season[t % m] * m / sum * (1 + 0.04 * random.nextGaussian());
+            }
+            ForecastResult r = ForecastEngine.forecast(new Series(g, LocalDate.of(2014, 1, 1),
+                    java.util.Arrays.copyOf(y, length)), ForecastRequest.of(m));
+            for (int h = 1; h <= m; h++) {
+                double actual = y[length + h - 1];
+                ForecastResult.ForecastPoint p = r.forecastAt(h);
+                in80[h][0] += actual >= p.lo80() && actual <= p.hi80() ? 1 : 0;
+                in95[h][0] += actual >= p.lo95() && actual <= p.hi95() ? 1 : 0;
+                in80[h][1]++;
+                in95[h][1]++;
+                int[] c = bySource.computeIfAbsent(r.intervalSource().name(), k -> new int[3]);
+                c[0] += actual >= p.lo80() && actual <= p.hi80() ? 1 : 0;
+                c[1] += actual >= p.lo95() && actual <= p.hi95() ? 1 : 0;
+                c[2]++;
+            }
+        }
+        int a80 = 0;
+        int a95 = 0;
+        int all = 0;
+        for (int h = 1; h <= m; h++) {
+            System.out.printf(Locale.ROOT, "BENCH simulated coverage | %s | %d | %d | %.1f%% | %.1f%%%n", name, h,
+                    in80[h][1], 100.0 * in80[h][0] / in80[h][1], 100.0 * in95[h][0] / in95[h][1]);
+            a80 += in80[h][0];
+            a95 += in95[h][0];
+            all += in80[h][1];
+        }
+        System.out.printf(Locale.ROOT, "BENCH simulated coverage | %s | all | %d | %.1f%% | %.1f%%%n", name, all,
+                100.0 * a80 / all, 100.0 * a95 / all);
+        bySource.forEach((source, c) -> System.out.printf(Locale.ROOT,
+                "BENCH simulated coverage | %s | ranges %s | %d | %.1f%% | %.1f%%%n", name, source.toLowerCase(Locale.ROOT),
+                c[2], 100.0 * c[0] / c[2], 100.0 * c[1] / c[2]));
+    }
+}
