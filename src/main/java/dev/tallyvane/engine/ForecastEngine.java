@@ -61,7 +61,7 @@ import org.apache.commons.math3.distribution.TDistribution;
 public final class ForecastEngine {
 
     /** Version of the engine, recorded with every issued forecast. */
-    public static final String VERSION = "1.3";
+    public static final String VERSION = "1.4";
 
     private static final int MINIMUM_TRAINING = 4;
     /** How many of the best candidates the combination averages. */

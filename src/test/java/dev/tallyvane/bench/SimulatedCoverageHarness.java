@@ -17,11 +17,15 @@ import org.junit.jupiter.api.Test;
  * question whether ranges fall short on growing quarterly books is asked here, on the tuning side. Not a test: it
  * prints {@code BENCH simulated coverage} lines.
  *
- * <pre>./mvnw -B test -Dtest=SimulatedCoverageHarness -Dsurefire.failIfNoSpecifiedTests=false [-Dbench.series=150]</pre>
+ * <pre>./mvnw -B test -Dtest=SimulatedCoverageHarness -Dsurefire.failIfNoSpecifiedTests=false [-Dbench.series=150]
+ *     [-Dbench.origins=12 -Dbench.origin-step=1]</pre>
  */
 class SimulatedCoverageHarness {
 
     private static final int SERIES = Integer.getInteger("bench.series", 150);
+    /** Rolling origins and the periods between them; 0 for the engine's defaults. */
+    private static final int ORIGINS = Integer.getInteger("bench.origins", 0);
+    private static final int ORIGIN_STEP = Integer.getInteger("bench.origin-step", 0);
 
     @Test
     void automaticChoiceOnSimulatedChains() {
@@ -50,7 +54,8 @@ class SimulatedCoverageHarness {
                 y[t] = level * season[t % m] * m / sum * (1 + 0.04 * random.nextGaussian());
             }
             ForecastResult r = ForecastEngine.forecast(new Series(g, LocalDate.of(2014, 1, 1),
-                    java.util.Arrays.copyOf(y, length)), ForecastRequest.of(m));
+                    java.util.Arrays.copyOf(y, length)), ORIGINS > 0 ? ForecastRequest.of(m).withOrigins(ORIGINS, ORIGIN_STEP)
+                    : ForecastRequest.of(m));
             for (int h = 1; h <= m; h++) {
                 double actual = y[length + h - 1];
                 ForecastResult.ForecastPoint p = r.forecastAt(h);

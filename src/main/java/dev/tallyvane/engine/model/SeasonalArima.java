@@ -365,6 +365,9 @@ public final class SeasonalArima implements Candidate {
      * How hard the optimiser works: its initial and final trust-region radius on the
      * partial-autocorrelation scale, and its evaluation budget (plus {@code perCoefficient} per coefficient).
      */
+    /** When the order search's simplex stops: every vertex's −2 log L changed by less than this, relatively. */
+    static final double SEARCH_TOLERANCE = 1e-4;
+
     record Effort(double initialRadius, double finalRadius, int evaluations, int perCoefficient) {
         /** Comparing orders: two decimals suffice to rank them. */
         static final Effort SEARCH = new Effort(0.5, 1e-2, 60, 30);
@@ -395,8 +398,12 @@ public final class SeasonalArima implements Candidate {
         double[] x0 = start != null && start.length == k ? start.clone() : new double[k];
         double wMean = centre[0];
         double wSpread = centre[1];
-        BoundedMinimum.Result result = BoundedMinimum.minimise(u -> minus2LogLikelihood(w, o, u, wMean, wSpread, exact),
-                x0, lower, upper, effort.initialRadius, effort.finalRadius, effort.evaluations + effort.perCoefficient * k);
+        java.util.function.ToDoubleFunction<double[]> objective = u -> minus2LogLikelihood(w, o, u, wMean, wSpread, exact);
+        int budget = effort.evaluations + effort.perCoefficient * k;
+        // ranking orders needs a value, not the last digits: the quick simplex; every estimate kept is BOBYQA's
+        BoundedMinimum.Result result = effort == Effort.SEARCH
+                ? BoundedMinimum.minimiseQuickly(objective, x0, lower, upper, effort.initialRadius, SEARCH_TOLERANCE, budget)
+                : BoundedMinimum.minimise(objective, x0, lower, upper, effort.initialRadius, effort.finalRadius, budget);
         double m2ll = result.value();
         if (!Double.isFinite(m2ll)) {
             return null;
