@@ -5,7 +5,9 @@ import dev.tallyvane.engine.ForecastRequest;
 import dev.tallyvane.engine.ForecastResult;
 import dev.tallyvane.engine.series.Granularity;
 import dev.tallyvane.engine.series.Series;
+import dev.tallyvane.support.SimulatedChains;
 import java.time.LocalDate;
+import java.util.List;
 import java.util.Locale;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
@@ -40,19 +42,9 @@ class SimulatedCoverageHarness {
         int[][] in80 = new int[m + 1][2];
         int[][] in95 = new int[m + 1][2];
         java.util.Map<String, int[]> bySource = new java.util.TreeMap<>();
+        java.util.Map<String, int[]> byChoice = new java.util.TreeMap<>();
         for (int s = 0; s < SERIES; s++) {
-            double[] season = new double[m];
-            double sum = 0;
-            for (int i = 0; i < m; i++) {
-                season[i] = 1 + 0.15 * Math.sin(2 * Math.PI * i / m + random.nextDouble()) + 0.05 * random.nextGaussian();
-                sum += season[i];
-            }
-            double[] y = new double[length + m];
-            double level = 500 + 1500 * random.nextDouble();
-            for (int t = 0; t < y.length; t++) {
-                level *= (1 + growth) * (1 + 0.015 * random.nextGaussian());
-                y[t] = level * season[t % m] * m / sum * (1 + 0.04 * random.nextGaussian());
-            }
+            double[] y = SimulatedChains.location(random, m, length + m, growth);
             ForecastResult r = ForecastEngine.forecast(new Series(g, LocalDate.of(2014, 1, 1),
                     java.util.Arrays.copyOf(y, length)), ORIGINS > 0 ? ForecastRequest.of(m).withOrigins(ORIGINS, ORIGIN_STEP)
                     : ForecastRequest.of(m));
@@ -63,10 +55,12 @@ class SimulatedCoverageHarness {
                 in95[h][0] += actual >= p.lo95() && actual <= p.hi95() ? 1 : 0;
                 in80[h][1]++;
                 in95[h][1]++;
-                int[] c = bySource.computeIfAbsent(r.intervalSource().name(), k -> new int[3]);
-                c[0] += actual >= p.lo80() && actual <= p.hi80() ? 1 : 0;
-                c[1] += actual >= p.lo95() && actual <= p.hi95() ? 1 : 0;
-                c[2]++;
+                for (int[] c : List.of(bySource.computeIfAbsent(r.intervalSource().name(), k -> new int[3]),
+                        byChoice.computeIfAbsent(r.chosenKey(), k -> new int[3]))) {
+                    c[0] += actual >= p.lo80() && actual <= p.hi80() ? 1 : 0;
+                    c[1] += actual >= p.lo95() && actual <= p.hi95() ? 1 : 0;
+                    c[2]++;
+                }
             }
         }
         int a80 = 0;
@@ -84,5 +78,8 @@ class SimulatedCoverageHarness {
         bySource.forEach((source, c) -> System.out.printf(Locale.ROOT,
                 "BENCH simulated coverage | %s | ranges %s | %d | %.1f%% | %.1f%%%n", name, source.toLowerCase(Locale.ROOT),
                 c[2], 100.0 * c[0] / c[2], 100.0 * c[1] / c[2]));
+        byChoice.forEach((key, c) -> System.out.printf(Locale.ROOT,
+                "BENCH simulated coverage | %s | chosen %s | %d | %.1f%% | %.1f%%%n", name, key, c[2],
+                100.0 * c[0] / c[2], 100.0 * c[1] / c[2]));
     }
 }

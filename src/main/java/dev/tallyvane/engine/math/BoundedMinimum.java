@@ -1,6 +1,7 @@
 package dev.tallyvane.engine.math;
 
 import java.util.function.ToDoubleFunction;
+import org.apache.commons.math3.exception.MathIllegalStateException;
 import org.apache.commons.math3.exception.TooManyEvaluationsException;
 import org.apache.commons.math3.optim.InitialGuess;
 import org.apache.commons.math3.optim.MaxEval;
@@ -20,8 +21,8 @@ import org.apache.commons.math3.optim.univariate.UnivariateObjectiveFunction;
  * parameter (Brent, <i>Algorithms for Minimization without Derivatives</i>, 1973, ch. 5), BOBYQA
  * for two or more (Powell, "The BOBYQA algorithm for bound constrained optimization without
  * derivatives", Cambridge report DAMTP 2009/NA06), both from Commons Math. The best point
- * evaluated is kept, so running out of evaluations still returns the best seen (never worse than
- * the start).
+ * evaluated is kept, so running out of evaluations, or BOBYQA giving up, still returns the best seen
+ * (never worse than the start).
  */
 public final class BoundedMinimum {
 
@@ -54,6 +55,9 @@ public final class BoundedMinimum {
             }
         } catch (TooManyEvaluationsException e) {
             // the best point seen so far stands
+        } catch (MathIllegalStateException e) {
+            // BOBYQA's "trust region step has failed to reduce Q" (its model of the function broke down, seen from a
+            // start the order search left near a minimum): the best point seen so far stands here too
         }
         return tracked.result();
     }
