@@ -54,14 +54,17 @@ import org.apache.commons.math3.distribution.TDistribution;
  * RMSE of the step-h errors (made non-decreasing in h), with the t distribution on as many degrees of
  * freedom as there were errors at steps 1..h (the non-decreasing σ_h rests on all of them; counting
  * only the step-h errors gave a far step with one error a t quantile on one degree of freedom and a
- * 95% band four times as wide as the 80% one).
+ * 95% band four times as wide as the 80% one), discounted for errors that move together
+ * ({@link #independence}). The errors behind the ranges and the calibration are those of the choice, not of
+ * the method chosen ({@link #choiceErrors}): each origin's error comes from what the rules pick on the other
+ * origins.
  *
  * <p>Deterministic: no randomness is used.
  */
 public final class ForecastEngine {
 
     /** Version of the engine, recorded with every issued forecast. */
-    public static final String VERSION = "1.4";
+    public static final String VERSION = "1.5";
 
     private static final int MINIMUM_TRAINING = 4;
     /** How many of the best candidates the combination averages. */
@@ -198,30 +201,15 @@ public final class ForecastEngine {
         Scored winner = scored.stream().filter(s -> Double.isFinite(s.score)).findFirst().orElse(null);
         String preferred = null;
         if (winner != null && !(winner.candidate instanceof Combination)) {
-            Scored combo = scored.stream().filter(s -> s.candidate instanceof Combination c
-                    && c.key().equals(Combination.Rule.MEAN.key()) && Double.isFinite(s.score)).findFirst().orElse(null);
+            Scored combo = meanCombination(scored);
             if (combo != null) {
                 double[] single = backtest.scoreByOrigin(winner.outcome, data.filled(), data.scorable(), m, metric);
                 double[] mean = backtest.scoreByOrigin(combo.outcome, data.filled(), data.scorable(), m, metric);
-                int wins = 0;
-                int compared = 0;
-                for (int i = 0; i < single.length; i++) {
-                    if (Double.isFinite(single[i]) && Double.isFinite(mean[i])) {
-                        compared++;
-                        double one = rankable(metric, single[i]);
-                        double three = rankable(metric, mean[i]);
-                        // a tie (also of two exact fits): the simpler
-                        wins += one <= three || Math.abs(one) < tolerance && Math.abs(three) < tolerance ? 1 : 0;
-                    }
-                }
-                double alone = ranked.applyAsDouble(winner);
-                double together = ranked.applyAsDouble(combo);
-                boolean clearly = compared >= 3 && wins * 3 > compared * 2
-                        && (alone < CLEAR_MARGIN * together || alone == together);
-                if (!clearly) {
+                int[] wins = wins(metric, single, mean, tolerance, -1);
+                if (!clearly(wins, ranked.applyAsDouble(winner), ranked.applyAsDouble(combo))) {
                     preferred = String.format(Locale.ROOT, "%s scored best but won on %d of %d origins only; the mean "
                             + "of the three best is used, as no single method was clearly better.",
-                            winner.candidate.name(), wins, compared);
+                            winner.candidate.name(), wins[0], wins[1]);
                     winner = combo;
                 }
             }
@@ -236,7 +224,7 @@ public final class ForecastEngine {
         } else {
             chosen = winner.candidate;
             fitting = winner.forFinalFit;
-            chosenOutcome = winner.outcome;
+            chosenOutcome = choiceErrors(scored, backtest, data, m, metric, tolerance, winner.outcome);
             int lead = backtest.allLeadTimes() ? backtest.longestLeadTime(n) : h;
             reason = String.format(Locale.ROOT, "Lowest %s over %d rolling origin%s, %s%d %s ahead.", metric.label(),
                     backtest.originCount(), backtest.originCount() == 1 ? "" : "s",
@@ -261,10 +249,108 @@ public final class ForecastEngine {
         PointForecast pf = model.forecast(h);
         IntervalSource source = usable(pf) || chosenOutcome == null ? IntervalSource.ANALYTIC
                 : IntervalSource.ROLLING_ORIGIN_ERRORS;
-        List<ForecastPoint> points = intervals(series, data, pf, chosenOutcome, source);
+        double independence = chosenOutcome == null ? 1 : independence(
+                backtest.errorCorrelation(chosenOutcome, data.filled(), data.scorable(), true),
+                backtest.errorCorrelation(chosenOutcome, data.filled(), data.scorable(), false));
+        List<ForecastPoint> points = intervals(series, data, pf, chosenOutcome, source, independence,
+                backtest.originCount());
         return new ForecastResult(chosen.key(), chosen.name(), model.description(), model.parameters(), source,
                 reason, series.granularity(), h, metric, points, data.history(model.fitted()), board,
                 backtest.originCount(), notes);
+    }
+
+    /** The mean of the three best among the scored, when it was scored. */
+    private static Scored meanCombination(List<Scored> scored) {
+        return scored.stream().filter(s -> s.candidate instanceof Combination c
+                && c.key().equals(Combination.Rule.MEAN.key()) && Double.isFinite(s.score)).findFirst().orElse(null);
+    }
+
+    /**
+     * On how many origins the single method did at least as well as the mean of the three best (a tie, also of two
+     * exact fits, counts for the simpler), and on how many both were scored: {wins, compared}.
+     *
+     * @param leftOut an origin left out of the comparison, or -1 for none
+     */
+    private static int[] wins(Metric metric, double[] single, double[] mean, double tolerance, int leftOut) {
+        int wins = 0;
+        int compared = 0;
+        for (int i = 0; i < single.length; i++) {
+            if (i != leftOut && Double.isFinite(single[i]) && Double.isFinite(mean[i])) {
+                compared++;
+                double one = rankable(metric, single[i]);
+                double three = rankable(metric, mean[i]);
+                wins += one <= three || Math.abs(one) < tolerance && Math.abs(three) < tolerance ? 1 : 0;
+            }
+        }
+        return new int[] {wins, compared};
+    }
+
+    /** Whether a single method is clearly better than the mean of the three best ({@link #CLEAR_MARGIN}). */
+    private static boolean clearly(int[] wins, double alone, double together) {
+        return wins[1] >= 3 && wins[0] * 3 > wins[1] * 2 && (alone < CLEAR_MARGIN * together || alone == together);
+    }
+
+    /**
+     * The rolling-origin errors of the <i>choice</i> rather than of the method chosen: at each origin, the forecast of
+     * the candidate the same rules (lowest score, ties to the simpler, a single method only when clearly better than
+     * the mean of the three best) pick from the other origins alone, scored on the one left out. The method chosen
+     * on all origins is the one whose errors came out smallest there, so its own errors understate what the next
+     * period holds (selection optimism); left-one-out errors carry the luck of the choice, as a cross-validation of
+     * the whole procedure does (Varma &amp; Simon, <i>BMC Bioinformatics</i> 7, 2006, on the bias of errors from
+     * the same data that made the choice: from memory). Ranking on the other origins uses the mean of each origin's
+     * metric. When every origin's choice is the method chosen, these are its own errors. With a single origin there
+     * is nothing to choose from: the chosen method's own errors.
+     */
+    private static RollingOriginBacktest.Outcome choiceErrors(List<Scored> scored, RollingOriginBacktest backtest,
+            PreparedSeries data, int m, Metric metric, double tolerance, RollingOriginBacktest.Outcome chosen) {
+        int origins = backtest.originCount();
+        if (origins < 2) {
+            return chosen;
+        }
+        List<Scored> usable = scored.stream().filter(s -> Double.isFinite(s.score)).toList();
+        java.util.Map<Scored, double[]> byOrigin = new java.util.IdentityHashMap<>();
+        for (Scored s : usable) {
+            byOrigin.put(s, backtest.scoreByOrigin(s.outcome, data.filled(), data.scorable(), m, metric));
+        }
+        Scored combo = meanCombination(usable);
+        double[][] forecasts = new double[origins][];
+        for (int out = 0; out < origins; out++) {
+            Scored best = null;
+            double bestValue = Double.POSITIVE_INFINITY;
+            for (Scored s : usable) {
+                double v = meanWithout(metric, byOrigin.get(s), out, tolerance);
+                if (v < bestValue || v == bestValue && best != null
+                        && s.candidate.complexity() < best.candidate.complexity()) {
+                    best = s;
+                    bestValue = v;
+                }
+            }
+            if (best == null) {
+                return chosen;
+            }
+            if (combo != null && !(best.candidate instanceof Combination)) {
+                int[] wins = wins(metric, byOrigin.get(best), byOrigin.get(combo), tolerance, out);
+                if (!clearly(wins, bestValue, meanWithout(metric, byOrigin.get(combo), out, tolerance))) {
+                    best = combo;
+                }
+            }
+            forecasts[out] = best.outcome.forecasts()[out];
+        }
+        return backtest.score(forecasts, data.filled(), data.scorable(), m);
+    }
+
+    /** The mean ranking value of the origins' scores but one (below the tolerance counts as 0); +∞ when none. */
+    private static double meanWithout(Metric metric, double[] byOrigin, int leftOut, double tolerance) {
+        double sum = 0;
+        int n = 0;
+        for (int i = 0; i < byOrigin.length; i++) {
+            if (i != leftOut && Double.isFinite(byOrigin[i])) {
+                double v = rankable(metric, byOrigin[i]);
+                sum += Math.abs(v) < tolerance ? 0 : v;
+                n++;
+            }
+        }
+        return n == 0 ? Double.POSITIVE_INFINITY : sum / n;
     }
 
     /** @param forFinalFit what fits all the data if this candidate is chosen ({@link Candidate#forFinalFit}) */
@@ -302,7 +388,7 @@ public final class ForecastEngine {
     private static final NormalDistribution NORMAL = new NormalDistribution(null, 0, 1);
 
     private static List<ForecastPoint> intervals(Series series, PreparedSeries data, PointForecast pf,
-            RollingOriginBacktest.Outcome outcome, IntervalSource source) {
+            RollingOriginBacktest.Outcome outcome, IntervalSource source, double independence, int origins) {
         int h = pf.horizon();
         List<ForecastPoint> out = new ArrayList<>(h);
         double[] calibration = source == IntervalSource.ANALYTIC ? calibration(pf, outcome) : null;
@@ -335,7 +421,8 @@ public final class ForecastEngine {
             errorsSoFar += count;
             if (Double.isFinite(r)) {
                 // σ_h is the largest step RMSE so far (non-decreasing in h): it rests on every error up to h
-                lastDf = Math.max(1, errorsSoFar);
+                // discounted for errors that move together, yet each origin counts as one independent error at least
+                lastDf = Math.max(1, Math.min(errorsSoFar, Math.max(origins, independence * errorsSoFar)));
             }
             double z80 = quantile(0.90, lastDf);
             double z95 = quantile(0.975, lastDf);
@@ -343,6 +430,28 @@ public final class ForecastEngine {
                     mean - z95 * runningSd, mean + z95 * runningSd, false));
         }
         return out;
+    }
+
+    /**
+     * The share of the rolling-origin errors that count as independent when σ_h is estimated from them: errors
+     * of neighbouring origins (one period apart, forecasting nearly the same periods) and of neighbouring steps
+     * from one origin move together, so N of them estimate a variance no better than fewer independent ones
+     * would. For a Gaussian AR(1) sequence with lag-one correlation ρ the sample variance has variance
+     * (2σ⁴/N)·(1 + ρ²)/(1 − ρ²) (Bartlett 1946, from memory), so N errors are worth
+     *
+     * <pre>N_eff = N · (1 − ρ_o²)/(1 + ρ_o²) · (1 − ρ_s²)/(1 + ρ_s²)</pre>
+     *
+     * with ρ_o across origins and ρ_s across steps ({@link RollingOriginBacktest#errorCorrelation}), the two
+     * directions treated as separable (from memory; Bayley &amp; Hammersley 1946 define the effective number of
+     * observations). The t quantile is taken on N_eff degrees of freedom rather than N, but never fewer than the
+     * origins (each origin's errors count as one independent error at least; without that floor a far step of a short
+     * series went back to a t quantile on one degree of freedom and a 95% band four times the 80% one): on simulated
+     * chains with a wandering level the errors' spread came out too small too often (docs/benchmarks.md).
+     */
+    static double independence(double acrossOrigins, double acrossSteps) {
+        double o = acrossOrigins * acrossOrigins;
+        double s = acrossSteps * acrossSteps;
+        return (1 - o) / (1 + o) * (1 - s) / (1 + s);
     }
 
     /** Prior weight, in errors, of the model's own σ_h against the backtest's (see {@link #calibration}). */

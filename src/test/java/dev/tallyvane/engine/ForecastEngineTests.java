@@ -32,6 +32,16 @@ class ForecastEngineTests {
     }
 
     @Test
+    void errorsThatMoveTogetherCountAsFewerIndependentOnes() {
+        assertThat(ForecastEngine.independence(0, 0)).isEqualTo(1.0);
+        // (1 - ρ²)/(1 + ρ²) for ρ = 0.5: 0.75 / 1.25, worked by hand; the two directions multiply
+        assertThat(ForecastEngine.independence(0.5, 0)).isCloseTo(0.6, within(1e-12));
+        assertThat(ForecastEngine.independence(0, 0.5)).isCloseTo(0.6, within(1e-12));
+        assertThat(ForecastEngine.independence(0.5, 0.5)).isCloseTo(0.36, within(1e-12));
+        assertThat(ForecastEngine.independence(0.99, 0)).isLessThan(0.011);
+    }
+
+    @Test
     void rollingOriginBandsStayCoherentWhenFarStepsHaveFewErrors() {
         // 24 months, 12 ahead, a method without formula intervals: the far steps have one or two backtest
         // errors each; the 95% band must not balloon against the 80% one (normal: 1.96/1.28 = 1.53)

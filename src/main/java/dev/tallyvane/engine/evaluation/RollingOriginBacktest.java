@@ -215,6 +215,38 @@ public final class RollingOriginBacktest {
         return out;
     }
 
+    /**
+     * Lag-one correlation of the errors, uncentred, clipped to [0, 0.99]: between neighbouring origins at the same
+     * step ({@code acrossOrigins}), or between neighbouring steps from the same origin. 0 when no pair was scored.
+     */
+    public double errorCorrelation(Outcome outcome, double[] y, boolean[] scorable, boolean acrossOrigins) {
+        double cross = 0;
+        double first = 0;
+        double second = 0;
+        for (int i = 0; i < origins.length; i++) {
+            for (int h = 1; h <= horizon; h++) {
+                int j = acrossOrigins ? i + 1 : i;
+                int k = acrossOrigins ? h : h + 1;
+                if (j >= origins.length || k > horizon) {
+                    continue;
+                }
+                int t = origins[i] + h - 1;
+                int u = origins[j] + k - 1;
+                if (t < y.length && u < y.length && scorable[t] && scorable[u]) {
+                    double a = y[t] - outcome.forecasts()[i][h - 1];
+                    double b = y[u] - outcome.forecasts()[j][k - 1];
+                    cross += a * b;
+                    first += a * a;
+                    second += b * b;
+                }
+            }
+        }
+        if (first == 0 || second == 0) {
+            return 0;
+        }
+        return Math.max(0, Math.min(0.99, cross / Math.sqrt(first * second)));
+    }
+
     /** Scores forecasts made at this backtest's origins (origin × step) against the data. */
     public Outcome score(double[][] forecasts, double[] y, boolean[] scorable, int seasonalPeriod) {
         ErrorSample errors = new ErrorSample();

@@ -10,6 +10,26 @@ import org.junit.jupiter.api.Test;
 class RollingOriginBacktestTests {
 
     @Test
+    void errorCorrelationPairsNeighbouringOriginsAtOneStepOrNeighbouringStepsOfOneOrigin() {
+        // 6 periods, horizon 2: origins after 3 and 4 periods; actuals 0, so the errors are minus the forecasts
+        RollingOriginBacktest plan = RollingOriginBacktest.plan(6, 2, 2, 1, 3);
+        double[] y = new double[6];
+        boolean[] scorable = new boolean[6];
+        Arrays.fill(scorable, true);
+        // errors: origin 1 → 1, -1; origin 2 → 2, 3
+        RollingOriginBacktest.Outcome outcome = plan.score(new double[][] {{-1, 1}, {-2, -3}}, y, scorable, 1);
+        // across steps: pairs (1, -1) and (2, 3): 5 / √(5 · 10), worked by hand
+        assertThat(plan.errorCorrelation(outcome, y, scorable, false)).isCloseTo(5 / Math.sqrt(50), within(1e-12));
+        // across origins: pairs (1, 2) and (-1, 3): -1 / √(2 · 13), below 0, so 0
+        assertThat(plan.errorCorrelation(outcome, y, scorable, true)).isZero();
+        scorable[5] = false;
+        // without the last period: across origins only (1, 2) is left, 2 / √(1 · 4) = 1, clipped to 0.99; across
+        // steps only (1, -1), below 0
+        assertThat(plan.errorCorrelation(outcome, y, scorable, true)).isCloseTo(0.99, within(1e-12));
+        assertThat(plan.errorCorrelation(outcome, y, scorable, false)).isZero();
+    }
+
+    @Test
     void allLeadTimesWeighEachStepAlike() {
         // 10 periods, horizon 3, origins up to the last period but one: 7, 8, 9 (training lengths)
         RollingOriginBacktest plan = RollingOriginBacktest.planAllLeadTimes(10, 3, 3, 1, 4);
