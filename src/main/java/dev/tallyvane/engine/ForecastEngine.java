@@ -200,12 +200,17 @@ public final class ForecastEngine {
         String reason;
         Scored winner = scored.stream().filter(s -> Double.isFinite(s.score)).findFirst().orElse(null);
         String preferred = null;
+        // each candidate's metric origin by origin, for the paired comparisons of the choice and of its errors
+        Map<Scored, double[]> byOrigin = new java.util.IdentityHashMap<>();
+        for (Scored s : scored) {
+            if (Double.isFinite(s.score)) {
+                byOrigin.put(s, backtest.scoreByOrigin(s.outcome, data.filled(), data.scorable(), m, metric));
+            }
+        }
         if (winner != null && !(winner.candidate instanceof Combination)) {
             Scored combo = meanCombination(scored);
             if (combo != null) {
-                double[] single = backtest.scoreByOrigin(winner.outcome, data.filled(), data.scorable(), m, metric);
-                double[] mean = backtest.scoreByOrigin(combo.outcome, data.filled(), data.scorable(), m, metric);
-                int[] wins = wins(metric, single, mean, tolerance, -1);
+                int[] wins = wins(metric, byOrigin.get(winner), byOrigin.get(combo), tolerance, -1);
                 if (!clearly(wins, ranked.applyAsDouble(winner), ranked.applyAsDouble(combo))) {
                     preferred = String.format(Locale.ROOT, "%s scored best but won on %d of %d origins only; the mean "
                             + "of the three best is used, as no single method was clearly better.",
@@ -224,7 +229,7 @@ public final class ForecastEngine {
         } else {
             chosen = winner.candidate;
             fitting = winner.forFinalFit;
-            chosenOutcome = choiceErrors(scored, backtest, data, m, metric, tolerance, winner.outcome);
+            chosenOutcome = choiceErrors(scored, byOrigin, backtest, data, m, metric, tolerance, winner.outcome);
             int lead = backtest.allLeadTimes() ? backtest.longestLeadTime(n) : h;
             reason = String.format(Locale.ROOT, "Lowest %s over %d rolling origin%s, %s%d %s ahead.", metric.label(),
                     backtest.originCount(), backtest.originCount() == 1 ? "" : "s",
@@ -267,7 +272,8 @@ public final class ForecastEngine {
 
     /**
      * On how many origins the single method did at least as well as the mean of the three best (a tie, also of two
-     * exact fits, counts for the simpler), and on how many both were scored: {wins, compared}.
+     * exact fits whose scores differ only by rounding, counts for the simpler), and on how many both were scored:
+     * {wins, compared}.
      *
      * @param leftOut an origin left out of the comparison, or -1 for none
      */
@@ -301,17 +307,14 @@ public final class ForecastEngine {
      * metric. When every origin's choice is the method chosen, these are its own errors. With a single origin there
      * is nothing to choose from: the chosen method's own errors.
      */
-    private static RollingOriginBacktest.Outcome choiceErrors(List<Scored> scored, RollingOriginBacktest backtest,
-            PreparedSeries data, int m, Metric metric, double tolerance, RollingOriginBacktest.Outcome chosen) {
+    private static RollingOriginBacktest.Outcome choiceErrors(List<Scored> scored, Map<Scored, double[]> byOrigin,
+            RollingOriginBacktest backtest, PreparedSeries data, int m, Metric metric, double tolerance,
+            RollingOriginBacktest.Outcome chosen) {
         int origins = backtest.originCount();
         if (origins < 2) {
             return chosen;
         }
-        List<Scored> usable = scored.stream().filter(s -> Double.isFinite(s.score)).toList();
-        java.util.Map<Scored, double[]> byOrigin = new java.util.IdentityHashMap<>();
-        for (Scored s : usable) {
-            byOrigin.put(s, backtest.scoreByOrigin(s.outcome, data.filled(), data.scorable(), m, metric));
-        }
+        List<Scored> usable = scored.stream().filter(byOrigin::containsKey).toList();
         Scored combo = meanCombination(usable);
         double[][] forecasts = new double[origins][];
         for (int out = 0; out < origins; out++) {
