@@ -42,6 +42,24 @@ class ForecastEngineTests {
     }
 
     @Test
+    void rangesAreWidenedSideBySideToTheFloorAndClosedDaysKeepTheirs() {
+        LocalDate d = LocalDate.of(2026, 1, 1);
+        List<ForecastResult.ForecastPoint> own = List.of(
+                new ForecastResult.ForecastPoint(d, "a", 100, 90, 115, 80, 125, false),
+                new ForecastResult.ForecastPoint(d.plusDays(1), "b", 100, 80, 120, 70, 130, false),
+                new ForecastResult.ForecastPoint(d.plusDays(2), "c", 0, 0, 0, 0, 0, true));
+        List<ForecastResult.ForecastPoint> floor = List.of(
+                new ForecastResult.ForecastPoint(d, "a", 100, 85, 110, 75, 140, false),
+                new ForecastResult.ForecastPoint(d.plusDays(1), "b", 100, 85, 115, 75, 125, false),
+                new ForecastResult.ForecastPoint(d.plusDays(2), "c", 0, -5, 5, -9, 9, false));
+        List<ForecastResult.ForecastPoint> out = ForecastEngine.noNarrowerThan(own, floor);
+        // each end moves out to the floor's where the floor's is further from the forecast, never in
+        assertThat(out.get(0)).isEqualTo(new ForecastResult.ForecastPoint(d, "a", 100, 85, 115, 75, 140, false));
+        assertThat(out.get(1)).isEqualTo(own.get(1));
+        assertThat(out.get(2)).isEqualTo(own.get(2));
+    }
+
+    @Test
     void rollingOriginBandsStayCoherentWhenFarStepsHaveFewErrors() {
         // 24 months, 12 ahead, a method without formula intervals: the far steps have one or two backtest
         // errors each; the 95% band must not balloon against the 80% one (normal: 1.96/1.28 = 1.53)

@@ -23,9 +23,7 @@ class SimulatedChainsForecastTests {
     @Test
     void everyLocationOfAQuarterlyChainGetsAForecast() {
         Random random = new Random(202);
-        int inside80 = 0;
-        int inside95 = 0;
-        int scored = 0;
+        Coverage coverage = new Coverage();
         for (int s = 0; s < 150; s++) {
             double[] y = SimulatedChains.location(random, 4, 44, 0.0);
             ForecastResult r = ForecastEngine.forecast(new Series(Granularity.QUARTER, LocalDate.of(2014, 1, 1),
@@ -36,18 +34,61 @@ class SimulatedChainsForecastTests {
                 assertThat(p.hi95()).isGreaterThanOrEqualTo(p.hi80());
             });
             if (r.intervalSource() == ForecastResult.IntervalSource.ROLLING_ORIGIN_ERRORS) {
-                for (int h = 1; h <= 4; h++) {
-                    ForecastResult.ForecastPoint p = r.forecastAt(h);
-                    double actual = y[40 + h - 1];
-                    inside80 += actual >= p.lo80() && actual <= p.hi80() ? 1 : 0;
-                    inside95 += actual >= p.lo95() && actual <= p.hi95() ? 1 : 0;
-                    scored++;
-                }
+                coverage.add(r, y, 40);
             }
         }
-        assertThat(scored).isGreaterThan(300);
-        // the promise of an 80% and a 95% range (common practice: the bands of issue 17, about two standard errors)
-        assertThat(100.0 * inside80 / scored).as("80%% ranges, %d scored", scored).isBetween(77.0, 83.0);
-        assertThat(100.0 * inside95 / scored).as("95%% ranges, %d scored", scored).isBetween(92.0, 98.0);
+        coverage.assertKeepsItsPromise();
+    }
+
+    /**
+     * A single method picked over the mean of the three best because it did better on six neighbouring origins was
+     * trusted beyond what those origins show: on 150 locations of a steady monthly chain (the chain of
+     * SimulatedCoverageHarness) the ranges of the single methods picked held 71.2% / 91.1% over the next year with
+     * engine 1.5. Since 1.6 they are never narrower than the mean's own ranges from its rolling-origin errors
+     * (79.4% / 94.1%), and the forecast's notes say where they were widened.
+     */
+    @Test
+    void aSingleMethodPickedOverTheMeanOfTheThreeBestKeepsItsPromise() {
+        Random random = new Random(404);
+        Coverage coverage = new Coverage();
+        int singles = 0;
+        int widened = 0;
+        for (int s = 0; s < 150; s++) {
+            double[] y = SimulatedChains.location(random, 12, 84, 0.0);
+            ForecastResult r = ForecastEngine.forecast(new Series(Granularity.MONTH, LocalDate.of(2014, 1, 1),
+                    Arrays.copyOf(y, 72)), ForecastRequest.of(12));
+            if (!r.chosenKey().startsWith("combo")) {
+                singles++;
+                widened += r.notes().stream().anyMatch(n -> n.startsWith("ranges widened")) ? 1 : 0;
+                coverage.add(r, y, 72);
+            }
+        }
+        assertThat(widened).as("forecasts whose notes say the ranges were widened, of %d", singles)
+                .isGreaterThan(singles / 2);
+        coverage.assertKeepsItsPromise();
+    }
+
+    /** How many actuals after the training periods fell inside the forecasts' 80% and 95% ranges. */
+    private static final class Coverage {
+        private int inside80;
+        private int inside95;
+        private int scored;
+
+        void add(ForecastResult r, double[] y, int trained) {
+            for (int h = 1; h <= r.forecasts().size(); h++) {
+                ForecastResult.ForecastPoint p = r.forecastAt(h);
+                double actual = y[trained + h - 1];
+                inside80 += actual >= p.lo80() && actual <= p.hi80() ? 1 : 0;
+                inside95 += actual >= p.lo95() && actual <= p.hi95() ? 1 : 0;
+                scored++;
+            }
+        }
+
+        void assertKeepsItsPromise() {
+            assertThat(scored).isGreaterThan(300);
+            // the promise of an 80% and a 95% range (common practice: the bands of issue 17, about two standard errors)
+            assertThat(100.0 * inside80 / scored).as("80%% ranges, %d scored", scored).isBetween(77.0, 83.0);
+            assertThat(100.0 * inside95 / scored).as("95%% ranges, %d scored", scored).isBetween(92.0, 98.0);
+        }
     }
 }
