@@ -180,8 +180,36 @@ public final class RollingOriginBacktest {
      * origin.
      */
     public Outcome runSettled(Candidate atOrigins, double[] y, boolean[] scorable, int seasonalPeriod) {
+        return runSettled(atOrigins, y, scorable, seasonalPeriod, null, null);
+    }
+
+    /**
+     * The same number of origins as this plan, {@code factor} times as far apart and ending at the same origin;
+     * fewer when the data do not hold them with {@code minimumTraining} periods before the earliest.
+     */
+    public RollingOriginBacktest spacedApart(int factor, int minimumTraining) {
+        if (origins.length < 2) {
+            return this;
+        }
+        return new RollingOriginBacktest(origins(origins[origins.length - 1], origins.length,
+                (origins[1] - origins[0]) * factor, minimumTraining), horizon, allLeadTimes);
+    }
+
+    /**
+     * Runs a settled candidate over every origin, taking its forecasts at the origins {@code other} has too from
+     * {@code known} (that plan's forecasts, origin × step) rather than fitting there again.
+     *
+     * @param other a plan the candidate already ran on, or null
+     */
+    public Outcome runSettled(Candidate atOrigins, double[] y, boolean[] scorable, int seasonalPeriod,
+            RollingOriginBacktest other, double[][] known) {
         double[][] forecasts = new double[origins.length][];
         for (int i = 0; i < origins.length; i++) {
+            int shared = other == null ? -1 : java.util.Arrays.binarySearch(other.origins, origins[i]);
+            if (shared >= 0) {
+                forecasts[i] = known[shared];
+                continue;
+            }
             double[] training = java.util.Arrays.copyOf(y, origins[i]);
             PointForecast f = atOrigins.fit(training, seasonalPeriod).forecast(horizon);
             forecasts[i] = f.mean();

@@ -3,6 +3,9 @@ package dev.tallyvane.engine.evaluation;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
+import dev.tallyvane.engine.model.Candidate;
+import dev.tallyvane.engine.model.FittedModel;
+import dev.tallyvane.engine.model.Naive;
 import java.util.Arrays;
 import org.junit.jupiter.api.Test;
 
@@ -27,6 +30,62 @@ class RollingOriginBacktestTests {
         // steps only (1, -1), below 0
         assertThat(plan.errorCorrelation(outcome, y, scorable, true)).isCloseTo(0.99, within(1e-12));
         assertThat(plan.errorCorrelation(outcome, y, scorable, false)).isZero();
+    }
+
+    @Test
+    void originsSpacedApartEndWhereThePlanEndsAndReuseTheForecastsAtSharedOrigins() {
+        // 30 periods, horizon 4, 6 origins one apart: training lengths 21..26; twice as far apart: 16, 18, .., 26
+        RollingOriginBacktest plan = RollingOriginBacktest.plan(30, 4, 6, 1, 4);
+        RollingOriginBacktest spaced = plan.spacedApart(2, 4);
+        assertThat(spaced.originCount()).isEqualTo(6);
+        assertThat(spaced.earliestTraining()).isEqualTo(16);
+        // too short for six origins two apart: as many as fit (training 8, 10, 12 of 16 periods)
+        assertThat(RollingOriginBacktest.plan(16, 4, 6, 1, 4).spacedApart(2, 8).originCount()).isEqualTo(3);
+        double[] y = new double[30];
+        for (int t = 0; t < 30; t++) {
+            y[t] = t;
+        }
+        boolean[] ok = new boolean[30];
+        Arrays.fill(ok, true);
+        int[] fits = new int[1];
+        Candidate naive = new Naive();
+        Candidate counted = new Candidate() {
+            @Override
+            public String key() {
+                return naive.key();
+            }
+
+            @Override
+            public String name() {
+                return naive.name();
+            }
+
+            @Override
+            public int complexity() {
+                return naive.complexity();
+            }
+
+            @Override
+            public int minimumHistory(int seasonalPeriod) {
+                return naive.minimumHistory(seasonalPeriod);
+            }
+
+            @Override
+            public FittedModel fit(double[] training, int seasonalPeriod) {
+                fits[0]++;
+                return naive.fit(training, seasonalPeriod);
+            }
+        };
+        RollingOriginBacktest.Outcome first = plan.runSettled(counted, y, ok, 1);
+        assertThat(fits[0]).isEqualTo(6);
+        // origins 22, 24, 26 are the plan's too: their forecasts are taken over (marked, to be seen), three fits only
+        double[][] known = Arrays.stream(first.forecasts()).map(f -> new double[] {-1, -1, -1, -1}).toArray(double[][]::new);
+        RollingOriginBacktest.Outcome second = spaced.runSettled(counted, y, ok, 1, plan, known);
+        assertThat(fits[0]).isEqualTo(9);
+        assertThat(second.forecasts()[0]).containsExactly(15, 15, 15, 15);
+        assertThat(second.forecasts()[2]).containsExactly(19, 19, 19, 19);
+        assertThat(second.forecasts()[3]).containsExactly(-1, -1, -1, -1);
+        assertThat(second.forecasts()[5]).containsExactly(-1, -1, -1, -1);
     }
 
     @Test
