@@ -65,21 +65,21 @@ import org.apache.commons.math3.distribution.TDistribution;
  * without this rule and 79% / 94% with it (docs/benchmarks.md).
  *
  * <p>Where the ranges of a method chosen from several rest on rolling-origin errors (as they are or as the
- * formula's calibration), they rest on origins {@value #SIZING_SPREAD} times as far apart as the choice's, ending
- * at the same origin: neighbouring origins forecast nearly the same periods, so their errors move together and
- * estimate the spread poorly, and they are the very origins the method was chosen on. Half of the spaced origins
- * are the choice's own (their forecasts are the choice's, above), the other half are fitted once more with the
- * structure the method settled at the choice's earliest origin (a little look-ahead in structure, none in
- * coefficients). Not for days (their origins are a week apart already, and a daily re-fit must stay quick), not on
- * series too short for as many spaced origins, not for a method given alone (whose errors are not those of a
- * choice). Point forecasts are unaffected.
+ * formula's calibration), they rest on as many origins further apart ({@link #sizingSpread}: about two months),
+ * ending at the same origin: neighbouring origins forecast nearly the same periods, so their errors move together
+ * and estimate the spread poorly, and they are the very origins the method was chosen on. Where a spaced origin is
+ * one of the choice's, its forecasts are the choice's (above); the others are fitted once more with the structure
+ * the method settled at the choice's earliest origin (a little look-ahead in structure, none in coefficients). Not
+ * for days (their origins are a week apart already, and a daily re-fit must stay quick), not on series too short
+ * for as many spaced origins, not for a method given alone (whose errors are not those of a choice). Point
+ * forecasts are unaffected.
  *
  * <p>Deterministic: no randomness is used.
  */
 public final class ForecastEngine {
 
     /** Version of the engine, recorded with every issued forecast. */
-    public static final String VERSION = "1.7";
+    public static final String VERSION = "1.8";
 
     private static final int MINIMUM_TRAINING = 4;
     /** How many of the best candidates the combination averages. */
@@ -101,11 +101,19 @@ public final class ForecastEngine {
     static final double CLEAR_MARGIN = 0.95;
     /**
      * How many times further apart than the choice's origins lie the origins that size the ranges of a method chosen
-     * from several (weeks, months and quarters; see the class Javadoc). Measured on the tuning side: 2 brought the
-     * simulated chains' 80% ranges from 72–77% to 74–81%, 3 over-covered the tuning harness (83.0%); the choice
-     * itself on origins two apart cost accuracy (docs/benchmarks.md).
+     * from several (see the class Javadoc): about two months apart, and at least two periods: 8 weeks, 2 months,
+     * 2 quarters; 1 (the choice's own origins) for days. Measured on the tuning side (simulated chains, tuning
+     * harness; docs/benchmarks.md): months and quarters 2 apart brought the chains' 80% ranges from 72–77% to
+     * 74–81% where 3 over-covered the tuning harness (83.0%) and 4 or 6 the monthly chains (83–85%); weeks needed 8
+     * (80% ranges 66–69% at 2, 72–73% at 4, 74–79% at 8). The choice itself on origins two apart cost accuracy.
      */
-    static final int SIZING_SPREAD = 2;
+    static int sizingSpread(Granularity granularity) {
+        return switch (granularity) {
+            case DAY -> 1;
+            case WEEK -> 8;
+            case MONTH, QUARTER -> 2;
+        };
+    }
 
     private ForecastEngine() {
     }
@@ -278,12 +286,12 @@ public final class ForecastEngine {
                 : IntervalSource.ROLLING_ORIGIN_ERRORS;
         RollingOriginBacktest sizing = backtest;
         RollingOriginBacktest.Outcome sizingOutcome = chosenOutcome;
-        if (chosenOutcome != null && byOrigin.size() > 1 && series.granularity() != Granularity.DAY
+        if (chosenOutcome != null && byOrigin.size() > 1 && sizingSpread(series.granularity()) > 1
                 && !backtest.allLeadTimes()) {
-            // chosen from several: sized on origins twice as far apart, half of them unseen by the choice; at the
+            // chosen from several: sized on origins further apart, most of them unseen by the choice; at the
             // origins both plans share, the choice's own forecasts (choiceErrors) are kept
             Candidate atOrigins = atOrigins(winner, best);
-            RollingOriginBacktest spaced = backtest.spacedApart(SIZING_SPREAD,
+            RollingOriginBacktest spaced = backtest.spacedApart(sizingSpread(series.granularity()),
                     Math.max(MINIMUM_TRAINING, atOrigins.minimumHistory(m)));
             if (spaced.originCount() == backtest.originCount()) {
                 try {

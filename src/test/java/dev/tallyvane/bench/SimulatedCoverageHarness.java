@@ -14,7 +14,8 @@ import org.junit.jupiter.api.Test;
 
 /**
  * How often the automatic choice's 80% and 95% ranges hold on simulated chains of our own, by steps ahead: monthly
- * and quarterly locations, with a steady or a growing level (a season in proportion to the level, noise in proportion
+ * and quarterly locations forecast a season ahead, and weekly ones (three years) forecast eight weeks ahead as the
+ * weekly re-fit does, with a steady or a growing level (a season in proportion to the level, noise in proportion
  * too, the level itself wandering). The reference harness's quarterly series are mostly in its held-out half, so the
  * question whether ranges fall short on growing quarterly books is asked here, on the tuning side. Not a test: it
  * prints {@code BENCH simulated coverage} lines.
@@ -31,30 +32,37 @@ class SimulatedCoverageHarness {
 
     @Test
     void automaticChoiceOnSimulatedChains() {
-        run("quarterly, growing", Granularity.QUARTER, 4, 40, 0.015, 101);
-        run("quarterly, steady", Granularity.QUARTER, 4, 40, 0.0, 202);
-        run("monthly, growing", Granularity.MONTH, 12, 72, 0.005, 303);
-        run("monthly, steady", Granularity.MONTH, 12, 72, 0.0, 404);
+        run("quarterly, growing", Granularity.QUARTER, 4, 4, 40, 0.015, 101);
+        run("quarterly, steady", Granularity.QUARTER, 4, 4, 40, 0.0, 202);
+        run("monthly, growing", Granularity.MONTH, 12, 12, 72, 0.005, 303);
+        run("monthly, steady", Granularity.MONTH, 12, 12, 72, 0.0, 404);
+        // three years of weeks, the next eight weeks (a weekly re-fit's view)
+        run("weekly, growing", Granularity.WEEK, 52, 8, 156, 0.001, 505);
+        run("weekly, steady", Granularity.WEEK, 52, 8, 156, 0.0, 606);
     }
 
-    private static void run(String name, Granularity g, int m, int length, double growth, long seed) {
+    /**
+     * @param m the season's length
+     * @param h the steps forecast
+     */
+    private static void run(String name, Granularity g, int m, int h, int length, double growth, long seed) {
         Random random = new Random(seed);
-        int[][] in80 = new int[m + 1][2];
-        int[][] in95 = new int[m + 1][2];
+        int[][] in80 = new int[h + 1][2];
+        int[][] in95 = new int[h + 1][2];
         java.util.Map<String, int[]> bySource = new java.util.TreeMap<>();
         java.util.Map<String, int[]> byChoice = new java.util.TreeMap<>();
         for (int s = 0; s < SERIES; s++) {
-            double[] y = SimulatedChains.location(random, m, length + m, growth);
-            ForecastResult r = ForecastEngine.forecast(new Series(g, LocalDate.of(2014, 1, 1),
-                    java.util.Arrays.copyOf(y, length)), ORIGINS > 0 ? ForecastRequest.of(m).withOrigins(ORIGINS, ORIGIN_STEP)
-                    : ForecastRequest.of(m));
-            for (int h = 1; h <= m; h++) {
-                double actual = y[length + h - 1];
-                ForecastResult.ForecastPoint p = r.forecastAt(h);
-                in80[h][0] += actual >= p.lo80() && actual <= p.hi80() ? 1 : 0;
-                in95[h][0] += actual >= p.lo95() && actual <= p.hi95() ? 1 : 0;
-                in80[h][1]++;
-                in95[h][1]++;
+            double[] y = SimulatedChains.location(random, m, length + h, growth);
+            ForecastResult r = ForecastEngine.forecast(new Series(g, g.periodStart(LocalDate.of(2014, 1, 1)),
+                    java.util.Arrays.copyOf(y, length)), ORIGINS > 0 ? ForecastRequest.of(h).withOrigins(ORIGINS, ORIGIN_STEP)
+                    : ForecastRequest.of(h));
+            for (int step = 1; step <= h; step++) {
+                double actual = y[length + step - 1];
+                ForecastResult.ForecastPoint p = r.forecastAt(step);
+                in80[step][0] += actual >= p.lo80() && actual <= p.hi80() ? 1 : 0;
+                in95[step][0] += actual >= p.lo95() && actual <= p.hi95() ? 1 : 0;
+                in80[step][1]++;
+                in95[step][1]++;
                 for (int[] c : List.of(bySource.computeIfAbsent(r.intervalSource().name(), k -> new int[3]),
                         byChoice.computeIfAbsent(r.chosenKey(), k -> new int[3]))) {
                     c[0] += actual >= p.lo80() && actual <= p.hi80() ? 1 : 0;
@@ -66,12 +74,12 @@ class SimulatedCoverageHarness {
         int a80 = 0;
         int a95 = 0;
         int all = 0;
-        for (int h = 1; h <= m; h++) {
-            System.out.printf(Locale.ROOT, "BENCH simulated coverage | %s | %d | %d | %.1f%% | %.1f%%%n", name, h,
-                    in80[h][1], 100.0 * in80[h][0] / in80[h][1], 100.0 * in95[h][0] / in95[h][1]);
-            a80 += in80[h][0];
-            a95 += in95[h][0];
-            all += in80[h][1];
+        for (int step = 1; step <= h; step++) {
+            System.out.printf(Locale.ROOT, "BENCH simulated coverage | %s | %d | %d | %.1f%% | %.1f%%%n", name, step,
+                    in80[step][1], 100.0 * in80[step][0] / in80[step][1], 100.0 * in95[step][0] / in95[step][1]);
+            a80 += in80[step][0];
+            a95 += in95[step][0];
+            all += in80[step][1];
         }
         System.out.printf(Locale.ROOT, "BENCH simulated coverage | %s | all | %d | %.1f%% | %.1f%%%n", name, all,
                 100.0 * a80 / all, 100.0 * a95 / all);
