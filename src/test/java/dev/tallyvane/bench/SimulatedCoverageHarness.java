@@ -21,7 +21,7 @@ import org.junit.jupiter.api.Test;
  * prints {@code BENCH simulated coverage} lines.
  *
  * <pre>./mvnw -B test -Dtest=SimulatedCoverageHarness -Dsurefire.failIfNoSpecifiedTests=false [-Dbench.series=150]
- *     [-Dbench.origins=12 -Dbench.origin-step=1]</pre>
+ *     [-Dbench.origins=12 -Dbench.origin-step=1] [-Dbench.weeks=130]</pre>
  */
 class SimulatedCoverageHarness {
 
@@ -29,6 +29,8 @@ class SimulatedCoverageHarness {
     /** Rolling origins and the periods between them; 0 for the engine's defaults. */
     private static final int ORIGINS = Integer.getInteger("bench.origins", 0);
     private static final int ORIGIN_STEP = Integer.getInteger("bench.origin-step", 0);
+    /** Weeks of history of the weekly locations. */
+    private static final int WEEKS = Integer.getInteger("bench.weeks", 156);
 
     @Test
     void automaticChoiceOnSimulatedChains() {
@@ -37,8 +39,8 @@ class SimulatedCoverageHarness {
         run("monthly, growing", Granularity.MONTH, 12, 12, 72, 0.005, 303);
         run("monthly, steady", Granularity.MONTH, 12, 12, 72, 0.0, 404);
         // three years of weeks, the next eight weeks (a weekly re-fit's view)
-        run("weekly, growing", Granularity.WEEK, 52, 8, 156, 0.001, 505);
-        run("weekly, steady", Granularity.WEEK, 52, 8, 156, 0.0, 606);
+        run("weekly, growing", Granularity.WEEK, 52, 8, WEEKS, 0.001, 505);
+        run("weekly, steady", Granularity.WEEK, 52, 8, WEEKS, 0.0, 606);
     }
 
     /**
