@@ -230,6 +230,7 @@ public final class ForecastEngine {
         String reason;
         Scored winner = scored.stream().filter(s -> Double.isFinite(s.score)).findFirst().orElse(null);
         String preferred = null;
+        Scored mean = meanCombination(scored);
         // each candidate's metric origin by origin, for the paired comparisons of the choice and of its errors
         Map<Scored, double[]> byOrigin = new java.util.IdentityHashMap<>();
         for (Scored s : scored) {
@@ -237,16 +238,13 @@ public final class ForecastEngine {
                 byOrigin.put(s, backtest.scoreByOrigin(s.outcome, data.filled(), data.scorable(), m, metric));
             }
         }
-        if (winner != null && !(winner.candidate instanceof Combination)) {
-            Scored combo = meanCombination(scored);
-            if (combo != null) {
-                int[] wins = wins(metric, byOrigin.get(winner), byOrigin.get(combo), tolerance, -1);
-                if (!clearly(wins, ranked.applyAsDouble(winner), ranked.applyAsDouble(combo))) {
-                    preferred = String.format(Locale.ROOT, "%s scored best but won on %d of %d origins only; the mean "
-                            + "of the three best is used, as no single method was clearly better.",
-                            winner.candidate.name(), wins[0], wins[1]);
-                    winner = combo;
-                }
+        if (winner != null && !(winner.candidate instanceof Combination) && mean != null) {
+            int[] wins = wins(metric, byOrigin.get(winner), byOrigin.get(mean), tolerance, -1);
+            if (!clearly(wins, ranked.applyAsDouble(winner), ranked.applyAsDouble(mean))) {
+                preferred = String.format(Locale.ROOT, "%s scored best but won on %d of %d origins only; the mean "
+                        + "of the three best is used, as no single method was clearly better.",
+                        winner.candidate.name(), wins[0], wins[1]);
+                winner = mean;
             }
         }
         if (winner == null) {
@@ -259,7 +257,7 @@ public final class ForecastEngine {
         } else {
             chosen = winner.candidate;
             fitting = winner.forFinalFit;
-            chosenOutcome = choiceErrors(scored, byOrigin, backtest, data, m, metric, tolerance, winner.outcome);
+            chosenOutcome = choiceErrors(scored, mean, byOrigin, backtest, data, m, metric, tolerance, winner.outcome);
             int lead = backtest.allLeadTimes() ? backtest.longestLeadTime(n) : h;
             reason = String.format(Locale.ROOT, "Lowest %s over %d rolling origin%s, %s%d %s ahead.", metric.label(),
                     backtest.originCount(), backtest.originCount() == 1 ? "" : "s",
@@ -306,7 +304,7 @@ public final class ForecastEngine {
         }
         List<ForecastPoint> points = intervals(series, data, pf, sizingOutcome, source,
                 independence(sizing, sizingOutcome, data), sizing.originCount());
-        Scored together = winner == null || chosen instanceof Combination ? null : meanCombination(scored);
+        Scored together = winner == null || chosen instanceof Combination ? null : mean;
         if (together != null) {
             // a single method picked over the mean of the three best: its ranges are never narrower than the mean's
             List<ForecastPoint> floor = intervals(series, data, pf, together.outcome,
@@ -359,9 +357,7 @@ public final class ForecastEngine {
      */
     private static Candidate atOrigins(Scored chosen, List<Scored> members) {
         if (chosen.candidate instanceof Combination combination) {
-            Combination.Rule rule = java.util.Arrays.stream(Combination.Rule.values())
-                    .filter(r -> r.key().equals(combination.key())).findFirst().orElseThrow();
-            return new Combination(members.stream().map(ForecastEngine::settled).toList(), rule);
+            return new Combination(members.stream().map(ForecastEngine::settled).toList(), combination.rule());
         }
         return settled(chosen);
     }
@@ -412,16 +408,17 @@ public final class ForecastEngine {
      * the same data that made the choice: from memory). Ranking on the other origins uses the mean of each origin's
      * metric. When every origin's choice is the method chosen, these are its own errors. With a single origin there
      * is nothing to choose from: the chosen method's own errors.
+     *
+     * @param combo the mean of the three best ({@link #meanCombination}), or null when it was not scored
      */
-    private static RollingOriginBacktest.Outcome choiceErrors(List<Scored> scored, Map<Scored, double[]> byOrigin,
-            RollingOriginBacktest backtest, PreparedSeries data, int m, Metric metric, double tolerance,
-            RollingOriginBacktest.Outcome chosen) {
+    private static RollingOriginBacktest.Outcome choiceErrors(List<Scored> scored, Scored combo,
+            Map<Scored, double[]> byOrigin, RollingOriginBacktest backtest, PreparedSeries data, int m,
+            Metric metric, double tolerance, RollingOriginBacktest.Outcome chosen) {
         int origins = backtest.originCount();
         if (origins < 2) {
             return chosen;
         }
         List<Scored> usable = scored.stream().filter(byOrigin::containsKey).toList();
-        Scored combo = meanCombination(usable);
         double[][] forecasts = new double[origins][];
         for (int out = 0; out < origins; out++) {
             Scored best = null;

@@ -68,6 +68,11 @@ public final class Combination implements Candidate {
         this.members = List.copyOf(members);
     }
 
+    /** How the members' forecasts are combined. */
+    public Rule rule() {
+        return rule;
+    }
+
     /** The mean combination's candidate key. */
     public static final String KEY = "combo";
 
