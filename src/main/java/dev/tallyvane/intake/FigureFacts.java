@@ -14,6 +14,12 @@ import org.springframework.transaction.annotation.Transactional;
  * The intake module's read API over the figures it keeps (besides {@link SeriesReader}'s series):
  * counts, latest periods, recent values, which series exist and when they last changed, and every
  * revision for exports. Records out; no other module names the figure tables in SQL.
+ *
+ * <p>Revisions are append-only (see {@link dev.tallyvane.intake.internal.FigureStore#newest}): a
+ * figure's current value is its highest {@code revision_no}, and every figure has exactly one first
+ * value ({@code revision_no = 1}), so what is about figures rather than their amounts (how many, which
+ * periods, which granularities, when last recorded) is read from the rows directly, without finding
+ * the newest.
  */
 @Component
 public class FigureFacts {
@@ -34,8 +40,10 @@ public class FigureFacts {
     @Transactional(readOnly = true)
     public Map<Long, Summary> summaries() {
         Map<Long, Summary> out = new HashMap<>();
-        jdbc.query("select location_id, count(*), max(period_start), max(recorded_at) from figure_revision "
-                + "where superseded_at is null group by location_id", rs -> {
+        // a figure counts once, by its first value; the newest row of any figure is current, so the
+        // latest recorded row of a location is a current one
+        jdbc.query("select location_id, count(case when revision_no = 1 then 1 end), max(period_start), "
+                + "max(recorded_at) from figure_revision group by location_id", rs -> {
                     out.put(rs.getLong(1), new Summary(rs.getLong(2), rs.getObject(3, LocalDate.class),
                             rs.getTimestamp(4).toInstant()));
                 });
@@ -54,11 +62,11 @@ public class FigureFacts {
 
     @Transactional(readOnly = true)
     public List<Recent> recent(long locationId, int limit) {
+        String current = dev.tallyvane.intake.internal.FigureStore.newest("amount, recorded_at, source, actor, note",
+                "location_id = ?");
         return jdbc.query("select f.measure, f.granularity, f.period_start, f.amount, f.recorded_at, f.source, f.actor, "
-                + "(select count(*) from figure_revision r where r.location_id = f.location_id and r.measure = f.measure "
-                + "and r.granularity = f.granularity and r.period_start = f.period_start), f.note "
-                + "from figure_revision f where f.location_id = ? and f.superseded_at is null "
-                + "order by f.period_start desc, f.measure fetch first " + limit + " rows only",
+                + "f.revision_no, f.note from " + current
+                + " f order by f.period_start desc, f.measure fetch first " + limit + " rows only",
                 (rs, i) -> new Recent(rs.getString(1), rs.getString(2).toLowerCase(java.util.Locale.ROOT),
                         rs.getObject(3, LocalDate.class), rs.getBigDecimal(4).stripTrailingZeros(),
                         rs.getTimestamp(5).toInstant(), rs.getString(6), rs.getString(7), rs.getInt(8), rs.getString(9)),
@@ -69,14 +77,14 @@ public class FigureFacts {
     @Transactional(readOnly = true)
     public List<String> storedGranularities(long locationId, String measure) {
         return jdbc.queryForList("select distinct granularity from figure_revision where location_id = ? "
-                + "and measure = ? and superseded_at is null", String.class, locationId, measure);
+                + "and measure = ?", String.class, locationId, measure);
     }
 
     /** The start of a series' latest period with a current figure, if any. */
     @Transactional(readOnly = true)
     public java.util.Optional<LocalDate> latestPeriod(long locationId, String measure) {
         return java.util.Optional.ofNullable(jdbc.queryForObject("select max(period_start) from figure_revision where "
-                + "location_id = ? and measure = ? and superseded_at is null", LocalDate.class, locationId, measure));
+                + "location_id = ? and measure = ?", LocalDate.class, locationId, measure));
     }
 
     /** A series with figures, and when a figure of it was last recorded. */
@@ -113,9 +121,11 @@ public class FigureFacts {
             where += " and period_start <= ?";
             args.add(to);
         }
-        streaming.query("select measure, granularity, period_start, amount, recorded_at, superseded_at, source, actor, "
-                + "upload_id, note from figure_revision where " + where + " order by measure, granularity, period_start, "
-                + "recorded_at, id", rs -> {
+        // a revision was replaced when the next one was recorded
+        streaming.query("select measure, granularity, period_start, amount, recorded_at, lead(recorded_at) over (partition "
+                + "by measure, granularity, period_start order by revision_no), source, actor, upload_id, note "
+                + "from figure_revision where " + where + " order by measure, granularity, period_start, revision_no",
+                rs -> {
                     java.sql.Timestamp replaced = rs.getTimestamp(6);
                     out.accept(new Revision(rs.getString(1), rs.getString(2), rs.getObject(3, LocalDate.class),
                             rs.getBigDecimal(4).stripTrailingZeros(), rs.getTimestamp(5).toInstant(),

@@ -26,9 +26,11 @@ import org.springframework.transaction.annotation.Transactional;
 
 /**
  * Records figures: checks them ({@link FigureRules}), compares them with the current values, and
- * writes only what is new or changed, keeping every earlier value as a revision. A batch is all or
- * nothing, and a location's figures are written only under its row lock, so concurrent posts for
- * the same location never duplicate a figure.
+ * writes only what is new or changed, keeping every earlier value as a revision. Revisions are
+ * append-only: a changed figure gets a new row numbered one past its current value, and no row is
+ * ever updated. A batch is all or nothing, and a location's figures are written only under its row
+ * lock, so concurrent posts for the same location never duplicate a figure (and the database's unique
+ * revision numbers refuse it if they tried).
  */
 @Service
 public class IntakeService {
@@ -63,7 +65,6 @@ public class IntakeService {
         locations.lockForWriting(byCode.values().stream().map(Location::getId).sorted().toList());
         Plan plan = plan(figures, byCode);
         Instant now = clock.instant().truncatedTo(ChronoUnit.MICROS);
-        store.supersede(plan.superseded, now);
         store.insert(plan.written, now, submitter);
         if (!plan.written.isEmpty()) {
             Set<FiguresRecorded.SeriesRef> series = new HashSet<>();
@@ -97,7 +98,7 @@ public class IntakeService {
         return locations.byCodes(codes).stream().collect(Collectors.toMap(Location::getCode, Function.identity()));
     }
 
-    private record Plan(List<Long> superseded, List<FigureStore.NewRevision> written, IntakeResult result) {
+    private record Plan(List<FigureStore.NewRevision> written, IntakeResult result) {
     }
 
     private record Group(String measure, Granularity granularity) {
@@ -108,7 +109,6 @@ public class IntakeService {
         for (FigureInput f : figures) {
             groups.computeIfAbsent(new Group(f.measure(), f.granularity()), g -> new ArrayList<>()).add(f);
         }
-        List<Long> superseded = new ArrayList<>();
         List<FigureStore.NewRevision> written = new ArrayList<>();
         Map<String, int[]> counts = new TreeMap<>();
         Map<String, List<IntakeResult.Change>> changes = new HashMap<>();
@@ -138,13 +138,12 @@ public class IntakeService {
                     created++;
                     c[0]++;
                     if (l != null) {
-                        written.add(new FigureStore.NewRevision(f.key(l.getId()), f.amount()));
+                        written.add(FigureStore.NewRevision.first(f.key(l.getId()), f.amount()));
                     }
                 } else if (now.amount().compareTo(f.amount()) != 0) {
                     changed++;
                     c[1]++;
-                    superseded.add(now.revisionId());
-                    written.add(new FigureStore.NewRevision(f.key(l.getId()), f.amount()));
+                    written.add(FigureStore.NewRevision.next(f.key(l.getId()), f.amount(), now));
                     changes.computeIfAbsent(f.locationCode(), k -> new ArrayList<>()).add(new IntakeResult.Change(
                             f.measure(), f.granularity().name().toLowerCase(java.util.Locale.ROOT),
                             f.granularity().label(f.periodStart()), now.amount().stripTrailingZeros(),
@@ -158,6 +157,6 @@ public class IntakeService {
         List<IntakeResult.LocationCounts> perLocation = new ArrayList<>();
         counts.forEach((code, c) -> perLocation.add(new IntakeResult.LocationCounts(code, c[0], c[1], c[2],
                 changes.getOrDefault(code, List.of()))));
-        return new Plan(superseded, written, new IntakeResult(figures.size(), created, changed, unchanged, perLocation));
+        return new Plan(written, new IntakeResult(figures.size(), created, changed, unchanged, perLocation));
     }
 }

@@ -125,15 +125,17 @@ class ExportsIntegrationTests {
         assertThat(r.getResponse().getContentType()).startsWith("text/csv");
         assertThat(r.getResponse().getHeader("Content-Disposition")).contains("tallyvane-figures-" + code + "-2026-12-01.csv");
         List<CSVRecord> rows = csv(r, ',');
-        List<Map<String, Object>> db = jdbc.queryForList("select period_start, amount, superseded_at from figure_revision "
-                + "where location_id = ? order by period_start, recorded_at, id", location.getId());
+        List<Map<String, Object>> db = jdbc.queryForList("select period_start, amount, revision_no, (select max(n.revision_no) "
+                + "from figure_revision n where n.location_id = f.location_id and n.measure = f.measure and n.granularity "
+                + "= f.granularity and n.period_start = f.period_start) newest from figure_revision f "
+                + "where location_id = ? order by period_start, revision_no", location.getId());
         assertThat(rows).hasSize(db.size()).hasSize(35);
         for (int i = 0; i < rows.size(); i++) {
             assertThat(rows.get(i).get("location")).isEqualTo(code);
             assertThat(LocalDate.parse(rows.get(i).get("period"))).isEqualTo(((java.sql.Date) db.get(i).get("period_start"))
                     .toLocalDate());
             assertThat(new BigDecimal(rows.get(i).get("amount"))).isEqualByComparingTo((BigDecimal) db.get(i).get("amount"));
-            assertThat(rows.get(i).get("current")).isEqualTo(db.get(i).get("superseded_at") == null ? "yes" : "no");
+            assertThat(rows.get(i).get("current")).isEqualTo(db.get(i).get("revision_no").equals(db.get(i).get("newest")) ? "yes" : "no");
         }
         assertThat(rows).filteredOn(x -> x.get("period").equals("2026-10-01")).extracting(x -> x.get("current"))
                 .containsExactly("no", "yes");

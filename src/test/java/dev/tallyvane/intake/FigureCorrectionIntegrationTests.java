@@ -87,7 +87,7 @@ class FigureCorrectionIntegrationTests {
     }
 
     List<Map<String, Object>> revisions(LocalDate day) {
-        return jdbc.queryForList("select amount, superseded_at, source, actor, note from figure_revision where "
+        return jdbc.queryForList("select amount, revision_no, source, actor, note from figure_revision where "
                 + "location_id = ? and period_start = ? and granularity = 'DAY' order by id", location.getId(), day);
     }
 
@@ -108,8 +108,9 @@ class FigureCorrectionIntegrationTests {
         List<Map<String, Object>> kept = revisions(day);
         assertThat(kept).hasSize(2);
         assertThat((BigDecimal) kept.get(0).get("amount")).isEqualByComparingTo("101");
-        assertThat(kept.get(0).get("superseded_at")).isNotNull();
+        assertThat(kept.get(0).get("revision_no")).isEqualTo(1);
         assertThat((BigDecimal) kept.get(1).get("amount")).isEqualByComparingTo("1150.50");
+        assertThat(kept.get(1).get("revision_no")).as("the correction is the next revision; the first is kept").isEqualTo(2);
         assertThat(kept.get(1)).containsEntry("source", "CORRECTION").containsEntry("actor", "bea")
                 .containsEntry("note", "the till counted one sale twice");
         assertThat(jdbc.queryForObject("select count(*) from audit_event where action = 'FIGURE_CORRECTED' and detail "

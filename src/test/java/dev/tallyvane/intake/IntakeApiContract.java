@@ -88,8 +88,8 @@ abstract class IntakeApiContract {
     /**
      * Many tills posting the same week for the same location at once, with the same and with
      * different values: every post is answered, each day keeps exactly one current value, the
-     * history is a clean chain (no two current rows, no repeated value, each revision superseded
-     * exactly when the next was recorded), and the current value is the newest revision's.
+     * history is a clean chain (revisions numbered 1, 2, 3, … in the order they were recorded, no
+     * repeated value), and the current value is the newest revision's.
      */
     @Test
     void concurrentPostsForTheSameDaysKeepOneConsistentHistory() throws Exception {
@@ -122,18 +122,17 @@ abstract class IntakeApiContract {
         for (int d = 0; d < 7; d++) {
             LocalDate day = first.plusDays(d);
             java.util.List<java.util.Map<String, Object>> revisions = jdbc.queryForList("select amount, recorded_at, "
-                    + "superseded_at from figure_revision where location_id = ? and granularity = 'DAY' and "
+                    + "revision_no from figure_revision where location_id = ? and granularity = 'DAY' and "
                     + "period_start = ? order by recorded_at, id", location.getId(), day);
             assertThat(revisions).as("revisions of %s", day).isNotEmpty();
-            assertThat(revisions.stream().filter(r -> r.get("superseded_at") == null)).as("current rows of %s", day)
-                    .hasSize(1);
-            assertThat(revisions.get(revisions.size() - 1).get("superseded_at")).as("the newest is current").isNull();
+            for (int i = 0; i < revisions.size(); i++) {
+                assertThat(revisions.get(i).get("revision_no")).as("revision numbers of %s in the order recorded", day)
+                        .isEqualTo(i + 1);
+            }
             for (int i = 1; i < revisions.size(); i++) {
                 assertThat(((java.math.BigDecimal) revisions.get(i).get("amount")).compareTo(
                         (java.math.BigDecimal) revisions.get(i - 1).get("amount"))).as("a repeated value was stored")
                         .isNotZero();
-                assertThat(revisions.get(i - 1).get("superseded_at")).as("superseded when the next was recorded")
-                        .isEqualTo(revisions.get(i).get("recorded_at"));
             }
             double current = ((java.math.BigDecimal) revisions.get(revisions.size() - 1).get("amount")).doubleValue();
             assertThat(current - d).isIn(100.0, 200.0, 300.0);

@@ -43,8 +43,22 @@ public class FigureStore {
         this.named = new NamedParameterJdbcTemplate(jdbc);
     }
 
-    /** The current value of a figure: the revision row's id and amount. */
-    public record Current(long revisionId, BigDecimal amount) {
+    /** The current value of a figure: its revision number (1 for the first value) and amount. */
+    public record Current(int revisionNo, BigDecimal amount) {
+    }
+
+    /**
+     * The newest revision of each figure among the rows {@code where} selects: {@code distinct on} the
+     * figure, highest {@code revision_no} first. Revisions are append-only (a correction inserts the next
+     * number and updates nothing), so the newest is the current value, or the value as of a time when the
+     * rows are limited to those recorded by then. A subquery, for the caller to select from, of the figure's
+     * key, {@code revision_no} and the {@code columns} named (only those: the rows are sorted, and narrow
+     * rows sort faster).
+     */
+    public static String newest(String columns, String where) {
+        return "(select distinct on (location_id, measure, granularity, period_start) location_id, measure, granularity, "
+                + "period_start, revision_no, " + columns + " from figure_revision where " + where
+                + " order by location_id, measure, granularity, period_start, revision_no desc)";
     }
 
     /** Current values of one measure and granularity for these locations between two periods. */
@@ -56,41 +70,32 @@ public class FigureStore {
             MapSqlParameterSource p = new MapSqlParameterSource("ids", ids.subList(i, Math.min(ids.size(), i + 1000)))
                     .addValue("measure", measure).addValue("granularity", granularity.name())
                     .addValue("from", from).addValue("to", to);
-            named.query("select id, location_id, period_start, amount from figure_revision "
-                    + "where location_id in (:ids) and measure = :measure and granularity = :granularity "
-                    + "and superseded_at is null and period_start between :from and :to", p, rs -> {
-                        out.put(new FigureKey(rs.getLong(2), measure, granularity, rs.getObject(3, LocalDate.class)),
-                                new Current(rs.getLong(1), rs.getBigDecimal(4)));
+            named.query("select location_id, period_start, revision_no, amount from " + newest("amount",
+                    "location_id in (:ids) and measure = :measure and granularity = :granularity "
+                    + "and period_start between :from and :to") + " f", p, rs -> {
+                        out.put(new FigureKey(rs.getLong(1), measure, granularity, rs.getObject(2, LocalDate.class)),
+                                new Current(rs.getInt(3), rs.getBigDecimal(4)));
                     });
         }
         return out;
     }
 
-    /** A value to write. */
-    public record NewRevision(FigureKey key, BigDecimal amount) {
-    }
-
     /**
-     * Marks the given revisions as superseded at {@code at}: one statement per {@value #SUPERSEDE_CHUNK} ids,
-     * given as an array ({@code id = any (?)}, PostgreSQL and H2 alike). A batch of one update per id went
-     * to the database row by row and held a 100,000-figure correction to about 12,000 figures a second
-     * (docs/benchmarks.md).
+     * A value to write: the figure, its amount and its revision number, one past the current value's
+     * ({@link #next}) or 1 for a figure not seen before.
      */
-    public void supersede(List<Long> revisionIds, Instant at) {
-        Timestamp ts = Timestamp.from(at);
-        for (int i = 0; i < revisionIds.size(); i += SUPERSEDE_CHUNK) {
-            Long[] chunk = revisionIds.subList(i, Math.min(revisionIds.size(), i + SUPERSEDE_CHUNK))
-                    .toArray(Long[]::new);
-            jdbc.update(connection -> {
-                var ps = connection.prepareStatement("update figure_revision set superseded_at = ? where id = any (?)");
-                ps.setTimestamp(1, ts);
-                ps.setArray(2, connection.createArrayOf("BIGINT", chunk));
-                return ps;
-            });
+    public record NewRevision(FigureKey key, BigDecimal amount, int revisionNo) {
+
+        /** The first value of a figure. */
+        public static NewRevision first(FigureKey key, BigDecimal amount) {
+            return new NewRevision(key, amount, 1);
+        }
+
+        /** A correction of {@code current}. */
+        public static NewRevision next(FigureKey key, BigDecimal amount, Current current) {
+            return new NewRevision(key, amount, current.revisionNo() + 1);
         }
     }
-
-    private static final int SUPERSEDE_CHUNK = 10_000;
 
     /**
      * Inserts new current values: with PostgreSQL's COPY when the connection is PostgreSQL's and the
@@ -104,7 +109,7 @@ public class FigureStore {
         for (int i = 0; i < revisions.size(); i += BATCH) {
             List<NewRevision> chunk = revisions.subList(i, Math.min(revisions.size(), i + BATCH));
             jdbc.batchUpdate("insert into figure_revision (location_id, measure, granularity, period_start, amount, "
-                    + "recorded_at, source, actor, upload_id, note) values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", chunk,
+                    + "recorded_at, source, actor, upload_id, note, revision_no) values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", chunk,
                     chunk.size(),
                     (ps, r) -> {
                         ps.setLong(1, r.key().locationId());
@@ -121,6 +126,7 @@ public class FigureStore {
                             ps.setLong(9, submitter.uploadId());
                         }
                         ps.setString(10, submitter.note());
+                        ps.setInt(11, r.revisionNo());
                     });
         }
     }
@@ -137,15 +143,15 @@ public class FigureStore {
             CopyManager copy = connection.unwrap(PGConnection.class).getCopyAPI();
             String tail = "," + at + "," + submitter.source().name() + "," + csv(submitter.actor()) + ","
                     + (submitter.uploadId() == null ? "" : submitter.uploadId()) + ","
-                    + (submitter.note() == null ? "" : csv(submitter.note())) + "\n";
+                    + (submitter.note() == null ? "" : csv(submitter.note())) + ",";
             StringBuilder sb = new StringBuilder(revisions.size() * 80);
             for (NewRevision r : revisions) {
                 sb.append(r.key().locationId()).append(',').append(csv(r.key().measure())).append(',')
                         .append(r.key().granularity().name()).append(',').append(r.key().periodStart()).append(',')
-                        .append(r.amount().toPlainString()).append(tail);
+                        .append(r.amount().toPlainString()).append(tail).append(r.revisionNo()).append('\n');
             }
             copy.copyIn("copy figure_revision (location_id, measure, granularity, period_start, amount, recorded_at, "
-                    + "source, actor, upload_id, note) from stdin with (format csv)", new StringReader(sb.toString()));
+                    + "source, actor, upload_id, note, revision_no) from stdin with (format csv)", new StringReader(sb.toString()));
             return true;
         } catch (SQLException | IOException e) {
             throw new DataAccessResourceFailureException("COPY into figure_revision failed: " + e.getMessage(), e);
@@ -172,16 +178,14 @@ public class FigureStore {
                 .addValue("granularities", granularities.stream().map(Enum::name).toList())
                 .addValue("from", from == null ? LocalDate.of(1900, 1, 1) : from)
                 .addValue("to", to == null ? LocalDate.of(9999, 12, 31) : to);
-        String when;
-        if (asOf == null) {
-            when = "superseded_at is null";
-        } else {
+        String where = "location_id = :location and measure = :measure and granularity in (:granularities) "
+                + "and period_start between :from and :to";
+        if (asOf != null) {
             p.addValue("asOf", Timestamp.from(asOf));
-            when = "recorded_at <= :asOf and (superseded_at is null or superseded_at > :asOf)";
+            where += " and recorded_at <= :asOf";
         }
-        return named.query("select period_start, granularity, amount from figure_revision where location_id = :location "
-                + "and measure = :measure and granularity in (:granularities) and period_start between :from and :to and "
-                + when + " order by period_start", p,
+        return named.query("select period_start, granularity, amount from " + newest("amount", where)
+                + " f order by period_start, granularity", p,
                 (rs, i) -> new Stored(rs.getObject(1, LocalDate.class), Granularity.valueOf(rs.getString(2)),
                         rs.getBigDecimal(3)));
     }
