@@ -69,7 +69,9 @@ public class FigureRules {
     public List<FieldProblem> check(List<FigureInput> figures, Map<String, Location> locations, Set<String> toBeCreated,
             Long onlyLocationId, String indexName) {
         List<FieldProblem> problems = new ArrayList<>();
-        Map<String, Integer> seen = new HashMap<>();
+        Map<Seen, Integer> seen = new HashMap<>(figures.size() * 4 / 3 + 1);
+        // a post names few measures, many times each: each is judged once
+        Map<String, java.util.Optional<String>> measureProblems = new HashMap<>();
         LocalDate earliest = properties.intake().earliestDate();
         int tolerance = properties.intake().futureToleranceDays();
         Map<String, LocalDate> todayByZone = new HashMap<>();
@@ -95,12 +97,10 @@ public class FigureRules {
                             + f.locationCode() + "'"));
                 }
             }
-            if (!MEASURE.matcher(f.measure()).matches()) {
-                problems.add(new FieldProblem(i, "measure", "'" + f.measure() + "' is not a measure name: use lower-case "
-                        + "letters, digits and '_', e.g. net_sales"));
-            } else if (Measures.undeclared(f.measure(), declared) != null) {
-                problems.add(new FieldProblem(i, "measure", Measures.undeclared(f.measure(), declared)));
-            }
+            measureProblems.computeIfAbsent(f.measure(), m -> java.util.Optional.ofNullable(!MEASURE.matcher(m).matches()
+                    ? "'" + m + "' is not a measure name: use lower-case letters, digits and '_', e.g. net_sales"
+                    : Measures.undeclared(m, declared)))
+                    .ifPresent(problem -> problems.add(new FieldProblem(i, "measure", problem)));
             LocalDate today = todayByZone.computeIfAbsent(location == null ? "" : location.getTimeZone(),
                     z -> LocalDate.now(z.isEmpty() ? clock : clock.withZone(java.time.ZoneId.of(z))));
             if (f.periodStart().isBefore(earliest)) {
@@ -118,19 +118,23 @@ public class FigureRules {
             int digits = location == null ? 2 : Math.max(0, location.currency().getDefaultFractionDigits());
             if (amount.abs().compareTo(LIMIT) >= 0) {
                 problems.add(new FieldProblem(i, "amount", "amount " + shown(amount) + " is too large"));
-            } else if (amount.stripTrailingZeros().scale() > digits) {
+            } else if (amount.scale() > digits && amount.stripTrailingZeros().scale() > digits) {
                 // also refuses a value that would round to zero (1e-400): a figure is never silently changed
                 problems.add(new FieldProblem(i, "amount", "amount " + shown(amount) + " has more than "
                         + digits + " decimal" + (digits == 1 ? "" : "s")
                         + (location == null ? "" : " (" + location.getCurrency() + ")")));
             }
-            String key = f.locationCode() + "|" + f.measure() + "|" + f.granularity() + "|" + f.periodStart();
-            Integer first = seen.putIfAbsent(key, i);
+            Integer first = seen.putIfAbsent(new Seen(f.locationCode(), f.measure(), f.granularity(), f.periodStart()), i);
             if (first != null) {
                 problems.add(new FieldProblem(i, "period", "duplicate: " + indexName + " " + first + " already gives "
                         + f.measure() + " for " + f.locationCode() + " " + f.granularity().label(f.periodStart())));
             }
         }
         return problems;
+    }
+
+    /** A figure as the duplicate check knows it. */
+    private record Seen(String locationCode, String measure, dev.tallyvane.engine.series.Granularity granularity,
+            LocalDate periodStart) {
     }
 }

@@ -45,6 +45,26 @@ class GranularityTests {
     }
 
     @Test
+    void dayLabelsAreReadCharacterByCharacterAsStrictlyAsTheIsoForm() {
+        Granularity d = Granularity.DAY;
+        for (LocalDate day = LocalDate.of(2023, 12, 25); day.isBefore(LocalDate.of(2025, 1, 8)); day = day.plusDays(1)) {
+            assertThat(d.parse(day.toString())).isEqualTo(day);
+            assertThat(Granularity.ofLabel(" " + day + " ")).isEqualTo(d);
+        }
+        assertThatThrownBy(() -> d.parse("2026-02-30")).hasMessageContaining("'2026-02-30' is not a valid day period")
+                .hasMessageContaining("FEBRUARY 30");
+        assertThatThrownBy(() -> d.parse("2026-13-01")).hasMessageContaining("'2026-13-01' is not a valid day period");
+        assertThatThrownBy(() -> d.parse("2026-00-10")).hasMessageContaining("is not a valid day period");
+        // not of the form: other separators, signs, widths, and digits other than ASCII 0-9
+        for (String notADay : new String[] {"2026/01/05", "2026-1-05", "+026-01-05", "2026-01-5 ", "202-01-051",
+                "\uFF12\uFF10\uFF12\uFF16-01-05", "2026-0\u0661-05", "2026-01-0:"}) {
+            assertThatThrownBy(() -> d.parse(notADay)).as(notADay).hasMessageContaining("is not a day period");
+            assertThatThrownBy(() -> Granularity.ofLabel(notADay)).as(notADay)
+                    .hasMessageContaining("is not a period label");
+        }
+    }
+
+    @Test
     void labelsAreThoseOfTheFormatPatternsForEveryDayOfManyYears() {
         for (LocalDate d = LocalDate.of(2019, 12, 20); d.isBefore(LocalDate.of(2027, 1, 10)); d = d.plusDays(1)) {
             assertThat(Granularity.WEEK.label(d)).isEqualTo(String.format(java.util.Locale.ROOT, "%04d-W%02d",
