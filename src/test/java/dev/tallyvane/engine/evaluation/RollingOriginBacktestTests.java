@@ -33,6 +33,34 @@ class RollingOriginBacktestTests {
     }
 
     @Test
+    void errorsAreRestatedAtTheLevelTheSeriesEndsAt() {
+        // 8 periods, horizon 1: origins forecasting y[6] and y[7]; levels are means of the two periods before
+        RollingOriginBacktest plan = RollingOriginBacktest.plan(8, 1, 2, 1, 6);
+        double[] y = {1, 1, 1, 1, 10, 10, 20, 20};
+        boolean[] ok = new boolean[8];
+        Arrays.fill(ok, true);
+        // errors 20 − 19 = 1 and 20 − 18 = 2; end level 20, levels at the origins 10 and 15: ratios 2 and 4/3
+        RollingOriginBacktest.Outcome outcome = plan.score(new double[][] {{19}, {18}}, y, ok, 1);
+        assertThat(plan.rmseByStepAtEndLevel(outcome, y, ok, 2)[0])
+                .isCloseTo(Math.sqrt((2 * 2 + (8.0 / 3) * (8.0 / 3)) / 2), within(1e-12));
+        assertThat(outcome.rmseAt(1)).as("as they were").isCloseTo(Math.sqrt(2.5), within(1e-12));
+        // a level a quarter of today's counts as half: the ratio is held to 2 (the second origin's: 20 / 12.5)
+        y[4] = 5;
+        y[5] = 5;
+        assertThat(plan.rmseByStepAtEndLevel(outcome, y, ok, 2)[0])
+                .isCloseTo(Math.sqrt((2 * 2 + 3.2 * 3.2) / 2), within(1e-12));
+        // a level resting on fewer than two values is not restated (the first origin's)
+        ok[4] = false;
+        assertThat(plan.rmseByStepAtEndLevel(outcome, y, ok, 2)[0])
+                .isCloseTo(Math.sqrt((1 + 3.2 * 3.2) / 2), within(1e-12));
+        // a steady series: nothing changes
+        double[] flat = {5, 5, 5, 5, 5, 5, 5, 5};
+        Arrays.fill(ok, true);
+        RollingOriginBacktest.Outcome steady = plan.score(new double[][] {{4}, {7}}, flat, ok, 1);
+        assertThat(plan.rmseByStepAtEndLevel(steady, flat, ok, 2)[0]).isCloseTo(steady.rmseAt(1), within(1e-12));
+    }
+
+    @Test
     void originsSpacedApartEndWhereThePlanEndsAndReuseTheForecastsAtSharedOrigins() {
         // 30 periods, horizon 4, 6 origins one apart: training lengths 21..26; twice as far apart: 16, 18, .., 26
         RollingOriginBacktest plan = RollingOriginBacktest.plan(30, 4, 6, 1, 4);
