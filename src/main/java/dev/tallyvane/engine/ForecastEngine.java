@@ -309,14 +309,12 @@ public final class ForecastEngine {
                 }
             }
         }
-        List<ForecastPoint> points = intervals(series, data, pf, sizingOutcome, source,
-                independence(sizing, sizingOutcome, data), sizing.originCount(), atEndLevel(sizing, sizingOutcome, data, season));
+        List<ForecastPoint> points = intervals(series, data, pf, sizing, sizingOutcome, source, season);
         Scored together = winner == null || chosen instanceof Combination ? null : mean;
         if (together != null) {
             // a single method picked over the mean of the three best: its ranges are never narrower than the mean's
-            List<ForecastPoint> floor = intervals(series, data, pf, together.outcome,
-                    IntervalSource.ROLLING_ORIGIN_ERRORS, independence(backtest, together.outcome, data),
-                    backtest.originCount(), atEndLevel(backtest, together.outcome, data, season));
+            List<ForecastPoint> floor = intervals(series, data, pf, backtest, together.outcome,
+                    IntervalSource.ROLLING_ORIGIN_ERRORS, season);
             List<ForecastPoint> widened = noNarrowerThan(points, floor);
             int steps = 0;
             for (int i = 0; i < points.size(); i++) {
@@ -336,12 +334,6 @@ public final class ForecastEngine {
     }
 
     /** {@link #independence(double, double)} of an outcome's errors across origins and steps; 1 without one. */
-    /** The step RMSEs of the outcome's errors restated at the level the series ends at; null without an outcome. */
-    private static double[] atEndLevel(RollingOriginBacktest backtest, RollingOriginBacktest.Outcome outcome,
-            PreparedSeries data, int season) {
-        return outcome == null ? null : backtest.rmseByStepAtEndLevel(outcome, data.filled(), data.scorable(), season);
-    }
-
     private static double independence(RollingOriginBacktest backtest, RollingOriginBacktest.Outcome outcome,
             PreparedSeries data) {
         return outcome == null ? 1 : independence(
@@ -506,12 +498,20 @@ public final class ForecastEngine {
 
     private static final NormalDistribution NORMAL = new NormalDistribution(null, 0, 1);
 
+    /**
+     * The forecast's ranges: from the formula (calibrated by the outcome's errors where there are some) or from the
+     * outcome's errors at the backtest's origins, those errors restated at the level the series ends at (a season's
+     * mean; {@link RollingOriginBacktest#rmseByStepAtEndLevel}).
+     */
     private static List<ForecastPoint> intervals(Series series, PreparedSeries data, PointForecast pf,
-            RollingOriginBacktest.Outcome outcome, IntervalSource source, double independence, int origins,
-            double[] rmse) {
+            RollingOriginBacktest backtest, RollingOriginBacktest.Outcome outcome, IntervalSource source, int season) {
         int h = pf.horizon();
         List<ForecastPoint> out = new ArrayList<>(h);
+        double[] rmse = outcome == null ? null
+                : backtest.rmseByStepAtEndLevel(outcome, data.filled(), data.scorable(), season);
         double[] calibration = source == IntervalSource.ANALYTIC ? calibration(pf, outcome, rmse) : null;
+        double independence = source == IntervalSource.ANALYTIC ? 1 : independence(backtest, outcome, data);
+        int origins = backtest.originCount();
         double runningSd = 0;
         double lastDf = 1;
         int errorsSoFar = 0;

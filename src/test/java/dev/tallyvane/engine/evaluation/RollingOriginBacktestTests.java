@@ -39,7 +39,8 @@ class RollingOriginBacktestTests {
         double[] y = {1, 1, 1, 1, 10, 10, 20, 20};
         boolean[] ok = new boolean[8];
         Arrays.fill(ok, true);
-        // errors 20 − 19 = 1 and 20 − 18 = 2; end level 20, levels at the origins 10 and 15: ratios 2 and 4/3
+        // worked by hand: errors 20 − 19 = 1 and 20 − 18 = 2; end level 20, levels at the origins 10 and 15: ratios
+        // 2 and 4/3
         RollingOriginBacktest.Outcome outcome = plan.score(new double[][] {{19}, {18}}, y, ok, 1);
         assertThat(plan.rmseByStepAtEndLevel(outcome, y, ok, 2)[0])
                 .isCloseTo(Math.sqrt((2 * 2 + (8.0 / 3) * (8.0 / 3)) / 2), within(1e-12));
